@@ -1,0 +1,108 @@
+import fs from 'node:fs'
+import path from 'node:path'
+import { csrfSync } from 'csrf-sync'
+import express, { type Express, type RequestHandler } from 'express'
+import helmet from 'helmet'
+import { createSessionMiddleware } from './auth/session'
+import { createPassport } from './auth/passport'
+import type { AppDeps } from './deps'
+import { errorHandler } from './middleware/errorHandler'
+import { notFound } from './middleware/notFound'
+import { adminRoutes } from './modules/admin/admin.routes'
+import { authRoutes } from './modules/auth/auth.routes'
+import { sentMailRoutes } from './modules/mail/mail.routes'
+import { meRoutes } from './modules/me/me.routes'
+import { personRoutes } from './modules/person/person.routes'
+import { therapistRoutes } from './modules/therapist/therapist.routes'
+
+function securityHeaders(https: boolean): RequestHandler[] {
+  return [
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // Vue and Quasar set style attributes at run time; no outside origin is allowed for anything.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          workerSrc: ["'self'"],
+          manifestSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          // Only over https: on plain http to a non-loopback address it blanks the page.
+          ...(https ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      strictTransportSecurity: https ? { maxAge: 31536000, includeSubDomains: true } : false,
+      referrerPolicy: { policy: 'no-referrer' },
+    }),
+    (_req, res, next) => {
+      res.setHeader('Permissions-Policy', 'camera=(), microphone=(), geolocation=(), payment=(), usb=()')
+      next()
+    },
+  ]
+}
+
+function requestLog(log: AppDeps['log']): RequestHandler {
+  return (req, res, next) => {
+    const start = process.hrtime.bigint()
+    // The path only: query strings and bodies may hold tokens or journal text.
+    res.on('finish', () => log(`${req.method} ${req.originalUrl.split("?")[0]} ${res.statusCode} ${Number(process.hrtime.bigint() - start) / 1e6}ms`))
+    next()
+  }
+}
+
+/** Builds the Express app without listening, so tests can drive it with Supertest. */
+export function createApp(deps: AppDeps): Express & { stop: () => void } {
+  const { config } = deps
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', config.trustProxy ? 1 : false)
+  app.use(securityHeaders(config.appUrl.startsWith('https:')))
+  if (config.logRequests) app.use(requestLog(deps.log))
+
+  const session = createSessionMiddleware(config, deps.sequelize)
+  const passport = createPassport(deps.models, config.scryptCost)
+  const csrf = csrfSync({ getTokenFromRequest: (req) => req.get('x-csrf-token') })
+
+  // Sessions live only under /api, so the static app never sets a cookie.
+  const api = express.Router()
+  api.use(express.json({ limit: '256kb' }))
+  api.use(session.middleware)
+  api.use(passport.initialize())
+  api.use(passport.session())
+  api.use(csrf.csrfSynchronisedProtection)
+  api.use('/auth', authRoutes(deps, passport, csrf.generateToken))
+  api.use('/me', meRoutes(deps))
+  api.use('/person', personRoutes(deps))
+  api.use('/therapist', therapistRoutes(deps))
+  api.use('/admin', adminRoutes(deps))
+  if (deps.fakeSmtp && config.env !== 'production') api.use('/admin/mail', sentMailRoutes(deps.fakeSmtp))
+  api.use(notFound)
+  app.use('/api', api)
+
+  const clientDir = config.clientDir
+  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(
+      express.static(clientDir, {
+        index: false,
+        setHeaders(res, file) {
+          // Hashed assets never change; the shell and the service worker must be re-checked on every visit.
+          if (file.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable')
+          else res.setHeader('Cache-Control', 'no-cache')
+        },
+      }),
+    )
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache')
+      res.sendFile(path.join(clientDir, 'index.html'))
+    })
+  }
+  app.use(errorHandler(deps.log))
+  return Object.assign(app, { stop: session.stop })
+}

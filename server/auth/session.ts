@@ -1,0 +1,56 @@
+import { randomBytes } from 'node:crypto'
+import fs from 'node:fs'
+import path from 'node:path'
+import SequelizeStoreInit from 'connect-session-sequelize'
+import session from 'express-session'
+import type { Sequelize } from 'sequelize'
+import type { Config } from '../config/env'
+
+const SequelizeStore = SequelizeStoreInit(session.Store)
+
+/**
+ * In development and tests a secret is made once and kept in the data folder, so restarts keep people signed in.
+ * Production must pass SESSION_SECRET (the config refuses to start without it).
+ */
+export function sessionSecret(config: Readonly<Config>): string {
+  if (config.sessionSecret) return config.sessionSecret
+  const file = path.join(config.dataDir, 'session-secret')
+  try {
+    return fs.readFileSync(file, 'utf8').trim()
+  } catch {
+    const secret = randomBytes(32).toString('base64url')
+    fs.mkdirSync(config.dataDir, { recursive: true })
+    fs.writeFileSync(file, secret, { mode: 0o600 })
+    return secret
+  }
+}
+
+export function createSessionMiddleware(config: Readonly<Config>, sequelize: Sequelize) {
+  const store = new SequelizeStore({
+    db: sequelize,
+    table: 'Session',
+    checkExpirationInterval: 15 * 60 * 1000,
+    extendDefaultFields: (defaults: { data: string; expires: Date }, s: { passport?: { user?: string } }) => ({
+      data: defaults.data,
+      expires: defaults.expires,
+      userId: s.passport?.user ?? null,
+    }),
+  })
+  const middleware = session({
+    name: 'rungs.sid',
+    secret: sessionSecret(config),
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    proxy: config.trustProxy,
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      // 'auto' marks the cookie Secure whenever the request arrived over TLS (directly or via a trusted proxy).
+      secure: 'auto',
+      maxAge: 12 * 60 * 60 * 1000,
+    },
+  })
+  return { middleware, stop: () => store.stopExpiringSessions() }
+}

@@ -1,0 +1,21 @@
+import type { Sequelize } from 'sequelize'
+import { SequelizeStorage, Umzug } from 'umzug'
+import * as m0001 from './m0001_accounts'
+
+// Listed by hand, in order: a new migration is a new file added here, never an edit to an old one.
+const migrations = [m0001]
+
+export function migrator(sequelize: Sequelize) {
+  return new Umzug({
+    migrations: migrations.map((m) => ({ name: m.name, up: m.up, down: m.down })),
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  })
+}
+
+/** Applies every pending migration; returns the names applied. */
+export async function migrate(sequelize: Sequelize): Promise<string[]> {
+  const done = await migrator(sequelize).up()
+  return done.map((m) => m.name)
+}

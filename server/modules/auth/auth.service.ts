@@ -1,0 +1,78 @@
+import type { SignUp } from '../../../shared/schemas/auth.schema'
+import { hashPassword } from '../../auth/password'
+import type { AppDeps } from '../../deps'
+import { alreadyRegisteredMail, resetMail, verifyMail } from '../../mail/templates/accountMail'
+import type { OutgoingMail } from '../../mail/transport'
+import { HttpError } from '../../middleware/HttpError'
+import { consumeToken, issueToken } from './tokens'
+
+type Deps = Pick<AppDeps, 'config' | 'models' | 'mailer' | 'log' | 'sequelize'>
+
+/** Mail failures are logged without the address and never change the answer, so answers reveal nothing. */
+async function sendQuietly(deps: Deps, mail: OutgoingMail): Promise<void> {
+  try {
+    await deps.mailer.send(mail)
+  } catch (err) {
+    deps.log(`mail: could not send "${mail.subject}": ${(err as Error).message}`)
+  }
+}
+
+/**
+ * Creates an account and sends a verification link. For an address that already has an account it sends that
+ * address a note instead; the caller answers the same either way.
+ */
+export async function signUp(deps: Deps, input: SignUp): Promise<void> {
+  const { models, config } = deps
+  const passwordHash = await hashPassword(input.password, config.scryptCost)
+  const existing = await models.User.findOne({ where: { email: input.email } })
+  if (existing) {
+    await sendQuietly(deps, alreadyRegisteredMail(existing.email, existing.displayName, `${config.appUrl}/signin`, `${config.appUrl}/forgot`))
+    return
+  }
+  const user = await deps.sequelize.transaction(async (transaction) => {
+    const created = await models.User.create(
+      { email: input.email, passwordHash, role: input.role, displayName: input.displayName, emailVerifiedAt: null, disabledAt: null },
+      { transaction },
+    )
+    if (input.role === 'therapist') {
+      await models.TherapistProfile.create(
+        { userId: created.id, practice: input.practice, registration: input.registration, approvedAt: null, approvedById: null, approvalChecks: null, approvalNote: null },
+        { transaction },
+      )
+    }
+    return created
+  })
+  const token = await issueToken(models, user.id, 'verify')
+  await sendQuietly(deps, verifyMail(user.email, user.displayName, `${config.appUrl}/verify?token=${token}`))
+}
+
+export async function verifyEmail(deps: Deps, token: string): Promise<void> {
+  const userId = await consumeToken(deps.models, token, 'verify')
+  if (!userId) throw new HttpError(400, 'link_expired', 'This link has expired or was already used. Sign in to ask for a new one.')
+  await deps.models.User.update({ emailVerifiedAt: new Date() }, { where: { id: userId, emailVerifiedAt: null } })
+}
+
+export async function resendVerification(deps: Deps, userId: string): Promise<void> {
+  const user = await deps.models.User.findByPk(userId)
+  if (!user || user.emailVerifiedAt) return
+  const token = await issueToken(deps.models, user.id, 'verify')
+  await sendQuietly(deps, verifyMail(user.email, user.displayName, `${deps.config.appUrl}/verify?token=${token}`))
+}
+
+export async function requestReset(deps: Deps, email: string): Promise<void> {
+  const user = await deps.models.User.findOne({ where: { email } })
+  if (!user || user.disabledAt) return
+  const token = await issueToken(deps.models, user.id, 'reset')
+  await sendQuietly(deps, resetMail(user.email, user.displayName, `${deps.config.appUrl}/reset?token=${token}`))
+}
+
+/** Sets the new password, confirms the address (the link proved the mailbox) and signs out every session. */
+export async function resetPassword(deps: Deps, token: string, password: string): Promise<void> {
+  const passwordHash = await hashPassword(password, deps.config.scryptCost)
+  const userId = await consumeToken(deps.models, token, 'reset')
+  if (!userId) throw new HttpError(400, 'link_expired', 'This link has expired or was already used. Ask for a new one.')
+  const user = await deps.models.User.findByPk(userId)
+  if (!user) throw new HttpError(400, 'link_expired', 'This link has expired or was already used. Ask for a new one.')
+  await user.update({ passwordHash, emailVerifiedAt: user.emailVerifiedAt ?? new Date() })
+  await deps.models.Session.destroy({ where: { userId } })
+}

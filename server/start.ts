@@ -1,0 +1,57 @@
+import type { AddressInfo } from 'node:net'
+import type { Server } from 'node:http'
+import { createApp } from './app'
+import type { Config } from './config/env'
+import { initModels } from './db/associations'
+import { migrate } from './db/migrations'
+import { seedDemoIfEmpty } from './db/seed'
+import { openDatabase } from './db/sequelize'
+import type { AppDeps } from './deps'
+import { startFakeSmtp } from './mail/fakeSmtp'
+import { createMailer } from './mail/transport'
+
+export interface Running {
+  url: string
+  server: Server
+  deps: AppDeps
+  close(): Promise<void>
+}
+
+/** Opens and migrates the database, seeds the demo when empty, starts mail, and listens. */
+export async function startServer(config: Readonly<Config>, log: (line: string) => void = console.log): Promise<Running> {
+  const sequelize = await openDatabase(config.databaseFile)
+  const applied = await migrate(sequelize)
+  if (applied.length) log(`database: applied ${applied.join(', ')}`)
+  const models = initModels(sequelize)
+  if (config.seedDemo && (await seedDemoIfEmpty(models, config.scryptCost))) log('database: seeded the demo accounts (see README)')
+
+  const fakeSmtp = config.smtpUrl
+    ? undefined
+    : await startFakeSmtp({ port: config.fakeSmtpPort, env: config.env, allowInProduction: config.allowFakeSmtpInProduction })
+  if (fakeSmtp) log(`mail: local fake SMTP on 127.0.0.1:${fakeSmtp.port}; read it on the admin "Sent mail" page`)
+  const mailer = createMailer({ smtpUrl: config.smtpUrl, fakePort: fakeSmtp?.port, from: config.mailFrom })
+
+  const deps: AppDeps = { config, sequelize, models, mailer, fakeSmtp, log }
+  const app = createApp(deps)
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(config.port, config.host, () => resolve(s))
+    s.once('error', reject)
+  })
+  const port = (server.address() as AddressInfo).port
+  const host = config.host === '0.0.0.0' || config.host === '127.0.0.1' ? 'localhost' : config.host
+
+  let closing: Promise<void> | undefined
+  const close = () =>
+    (closing ??= (async () => {
+      // In-flight requests finish; idle keep-alive sockets are closed so shutdown does not hang.
+      await new Promise<void>((resolve) => {
+        server.close(() => resolve())
+        server.closeIdleConnections()
+      })
+      app.stop()
+      mailer.close()
+      await fakeSmtp?.close()
+      await sequelize.close()
+    })())
+  return { url: `http://${host}:${port}`, server, deps, close }
+}
