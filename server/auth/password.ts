@@ -21,6 +21,8 @@ export async function verifyPassword(password: string, stored: string): Promise<
   if (scheme !== 'scrypt' || !n || !r || !p || !saltB64 || !keyB64) return false
   const N = Number(n), R = Number(r), P = Number(p)
   const expected = Buffer.from(keyB64, 'base64')
-  const key = await scrypt(password, Buffer.from(saltB64, 'base64'), expected.length, { N, r: R, p: P, maxmem: 256 * N * R })
-  return timingSafeEqual(key, expected)
+  // A damaged key decodes short or empty, and an empty key would match every password.
+  if (expected.length < 32) return false
+  const key = await scrypt(password, Buffer.from(saltB64, 'base64'), expected.length, { N, r: R, p: P, maxmem: 256 * N * R }).catch(() => undefined)
+  return key ? timingSafeEqual(key, expected) : false
 }

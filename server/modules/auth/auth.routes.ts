@@ -9,7 +9,7 @@ import { authController } from './auth.controller'
 
 export function authRoutes(deps: AppDeps, passport: ReturnType<typeof createPassport>, csrfToken: Parameters<typeof authController>[2]) {
   const c = authController(deps, passport, csrfToken)
-  const signInLimit = limitPerIp(deps.config.signInLimit)
+  const signInLimit = limitPerIp(deps.config.signInLimit, { skipSuccessfulRequests: true })
   const mailLimit = limitPerIp(deps.config.resetLimit)
   const router = Router()
   router.get('/csrf', c.csrf)

@@ -6,7 +6,8 @@ import { presentMe } from './presentMe'
 export function meRoutes(deps: AppDeps) {
   const router = Router()
   router.get('/', requireAuth, async (req, res) => {
-    res.json({ user: await presentMe(deps.models, req.user!) })
+    const sentMail = req.user!.role === 'admin' && Boolean(deps.fakeSmtp) && deps.config.env !== 'production'
+    res.json({ user: await presentMe(deps.models, req.user!), features: { sentMail } })
   })
   return router
 }

@@ -1,0 +1,64 @@
+import { apiErrorSchema } from '@shared/schemas/error.schema'
+import type { ZodType } from 'zod'
+
+/** An API failure with the server's code and plain message; status 0 means the network could not be reached. */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly details?: unknown,
+  ) {
+    super(message)
+  }
+}
+
+let csrfToken: string | undefined
+let onUnauthenticated: (() => void) | undefined
+
+/** Called by boot/http.ts: one place decides what a 401 means for the app. */
+export function setUnauthenticatedHandler(handler: () => void): void {
+  onUnauthenticated = handler
+}
+
+/** The server hands out a new token at sign-in and sign-out (the session is regenerated). */
+export function setCsrfToken(token: string | undefined): void {
+  csrfToken = token
+}
+
+async function ensureCsrf(): Promise<string> {
+  if (csrfToken) return csrfToken
+  const body = await request('GET', '/api/auth/csrf', undefined, undefined, false)
+  csrfToken = (body as { csrfToken: string }).csrfToken
+  return csrfToken
+}
+
+/**
+ * The only function that calls fetch. Parses success bodies with the given schema and errors with the shared
+ * error shape. Retries once with a fresh CSRF token when the server says the token is stale.
+ */
+export async function request<T>(method: string, url: string, body?: unknown, schema?: ZodType<T>, retryCsrf = true): Promise<T> {
+  const headers: Record<string, string> = { accept: 'application/json' }
+  if (body !== undefined) headers['content-type'] = 'application/json'
+  if (method !== 'GET' && method !== 'HEAD') headers['x-csrf-token'] = await ensureCsrf()
+  let res: Response
+  try {
+    res = await fetch(url, { method, headers, credentials: 'same-origin', body: body === undefined ? undefined : JSON.stringify(body) })
+  } catch {
+    throw new ApiError(0, 'offline', 'Rungs could not reach the server. Check your connection; nothing you typed is lost.')
+  }
+  const data: unknown = res.status === 204 ? undefined : await res.json().catch(() => undefined)
+  if (!res.ok) {
+    const parsed = apiErrorSchema.safeParse(data)
+    const err = parsed.success
+      ? new ApiError(res.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details)
+      : new ApiError(res.status, 'unexpected', 'The server answered in a way Rungs did not expect. Please try again.')
+    if (err.code === 'csrf' && retryCsrf) {
+      csrfToken = undefined
+      return request(method, url, body, schema, false)
+    }
+    if (res.status === 401 && url !== '/api/me') onUnauthenticated?.()
+    throw err
+  }
+  return schema ? schema.parse(data) : (data as T)
+}

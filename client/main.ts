@@ -1,0 +1,24 @@
+import '@fontsource/lora/latin-400.css'
+import '@fontsource/lora/latin-600.css'
+import '@quasar/extras/material-icons/material-icons.css'
+import 'quasar/src/css/index.sass'
+import './css/brand.css'
+import './css/app.css'
+
+import { createPinia } from 'pinia'
+import { Dark, Dialog, Notify, Quasar } from 'quasar'
+import { createApp } from 'vue'
+import App from './App.vue'
+import { bootAppearance } from './boot/appearance'
+import { bootDeviceSettings } from './boot/deviceSettings'
+import { bootHttp } from './boot/http'
+import { router } from './router'
+
+const app = createApp(App)
+app.use(createPinia())
+app.use(Quasar, { plugins: { Notify, Dialog, Dark }, config: { notify: { position: 'top' } } })
+bootAppearance()
+bootHttp()
+bootDeviceSettings()
+app.use(router)
+app.mount('#app')

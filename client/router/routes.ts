@@ -1,0 +1,59 @@
+import type { RouteRecordRaw } from 'vue-router'
+import type { Role } from '@shared/schemas/auth.schema'
+import { RouteName } from './names'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Signed-in roles allowed here; absent means anyone, signed in or not. */
+    roles?: Role[]
+    title?: string
+  }
+}
+
+export const routes: RouteRecordRaw[] = [
+  {
+    path: '/',
+    component: () => import('@/layouts/PersonLayout.vue'),
+    children: [
+      { path: '', name: RouteName.Today, component: () => import('@/pages/TodayPage.vue'), meta: { title: 'Today' } },
+      { path: 'more', name: RouteName.More, component: () => import('@/pages/MorePage.vue'), meta: { title: 'More' } },
+      { path: 'more/settings', name: RouteName.Settings, component: () => import('@/pages/SettingsPage.vue'), meta: { title: 'Settings' } },
+    ],
+  },
+  {
+    path: '/',
+    component: () => import('@/layouts/AuthLayout.vue'),
+    children: [
+      { path: 'signin', name: RouteName.SignIn, component: () => import('@/pages/SignInPage.vue'), meta: { title: 'Sign in' } },
+      { path: 'signup', name: RouteName.SignUp, component: () => import('@/pages/SignUpPage.vue'), meta: { title: 'Create an account' } },
+      { path: 'verify', name: RouteName.Verify, component: () => import('@/pages/VerifyPage.vue'), meta: { title: 'Confirm your e-mail' } },
+      { path: 'forgot', name: RouteName.Forgot, component: () => import('@/pages/ForgotPasswordPage.vue'), meta: { title: 'Forgot your password' } },
+      { path: 'reset', name: RouteName.Reset, component: () => import('@/pages/ResetPasswordPage.vue'), meta: { title: 'Choose a new password' } },
+    ],
+  },
+  {
+    path: '/therapist',
+    component: () => import('@/layouts/TherapistLayout.vue'),
+    meta: { roles: ['therapist'] },
+    children: [
+      { path: '', redirect: { name: RouteName.TherapistSettings } },
+      { path: 'settings', name: RouteName.TherapistSettings, component: () => import('@/pages/TherapistSettingsPage.vue'), meta: { title: 'Settings' } },
+    ],
+  },
+  {
+    path: '/admin',
+    component: () => import('@/layouts/AdminLayout.vue'),
+    meta: { roles: ['admin'] },
+    children: [
+      { path: '', redirect: { name: RouteName.AdminApprovals } },
+      { path: 'approvals', name: RouteName.AdminApprovals, component: () => import('@/pages/ApprovalsPage.vue'), meta: { title: 'Approvals' } },
+      { path: 'accounts', name: RouteName.AdminAccounts, component: () => import('@/pages/AccountsPage.vue'), meta: { title: 'Accounts' } },
+      { path: 'mail', name: RouteName.AdminSentMail, component: () => import('@/pages/SentMailPage.vue'), meta: { title: 'Sent mail' } },
+    ],
+  },
+  {
+    path: '/:pathMatch(.*)*',
+    component: () => import('@/layouts/AuthLayout.vue'),
+    children: [{ path: '', name: RouteName.NotFound, component: () => import('@/pages/NotFoundPage.vue'), meta: { title: 'Not found' } }],
+  },
+]

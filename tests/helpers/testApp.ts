@@ -1,0 +1,78 @@
+import fs from 'node:fs'
+import os from 'node:os'
+import path from 'node:path'
+import supertest from 'supertest'
+import { createApp } from '../../server/app'
+import { loadConfig, type Config } from '../../server/config/env'
+import { initModels } from '../../server/db/associations'
+import { migrate } from '../../server/db/migrations'
+import { seedDemoIfEmpty } from '../../server/db/seed'
+import { openDatabase } from '../../server/db/sequelize'
+import type { AppDeps } from '../../server/deps'
+import { startFakeSmtp } from '../../server/mail/fakeSmtp'
+import { createMailer } from '../../server/mail/transport'
+
+export interface TestApp {
+  app: ReturnType<typeof createApp>
+  deps: AppDeps & { fakeSmtp: NonNullable<AppDeps['fakeSmtp']> }
+  dataDir: string
+  close(): Promise<void>
+}
+
+/** A fresh SQLite file, a real fake SMTP server on a free port, and the app, for one test file. */
+export async function makeTestApp(env: Record<string, string> = {}, overrides: Partial<Config> = {}): Promise<TestApp> {
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-test-'))
+  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SCRYPT_COST: '1024', SEED_DEMO: 'true', APP_URL: 'http://localhost:3000', ...env }, { clientDir: undefined, ...overrides })
+  const sequelize = await openDatabase(config.databaseFile)
+  await migrate(sequelize)
+  const models = initModels(sequelize)
+  if (config.seedDemo) await seedDemoIfEmpty(models, config.scryptCost)
+  const fakeSmtp = await startFakeSmtp({ port: 0, env: config.env })
+  const mailer = createMailer({ fakePort: fakeSmtp.port, from: config.mailFrom })
+  const deps = { config, sequelize, models, mailer, fakeSmtp, log: () => {} }
+  const app = createApp(deps)
+  return {
+    app,
+    deps,
+    dataDir,
+    async close() {
+      app.stop()
+      mailer.close()
+      await fakeSmtp.close()
+      await sequelize.close()
+      fs.rmSync(dataDir, { recursive: true, force: true })
+    },
+  }
+}
+
+/** A cookie-keeping Supertest agent that has fetched a CSRF token; `token` is refreshed by signIn/signOut. */
+export async function agentWithCsrf(app: TestApp['app']) {
+  const agent = supertest.agent(app)
+  const res = await agent.get('/api/auth/csrf').expect(200)
+  const state = { agent, token: res.body.csrfToken as string }
+  return {
+    ...state,
+    get token() { return state.token },
+    post: (url: string, body?: object) => agent.post(url).set('x-csrf-token', state.token).send(body ?? {}),
+    patch: (url: string, body?: object) => agent.patch(url).set('x-csrf-token', state.token).send(body ?? {}),
+    del: (url: string) => agent.delete(url).set('x-csrf-token', state.token),
+    get: (url: string) => agent.get(url),
+    async signIn(email: string, password: string) {
+      const r = await agent.post('/api/auth/signin').set('x-csrf-token', state.token).send({ email, password })
+      if (r.body?.csrfToken) state.token = r.body.csrfToken
+      return r
+    },
+    async signOut() {
+      const r = await agent.post('/api/auth/signout').set('x-csrf-token', state.token).send({})
+      if (r.body?.csrfToken) state.token = r.body.csrfToken
+      return r
+    },
+  }
+}
+
+/** Pulls the first link to APP_URL out of a mail body. */
+export function linkIn(text: string, pathPrefix: string): string {
+  const m = text.match(new RegExp(`http://localhost:3000${pathPrefix}\\?token=([A-Za-z0-9_-]{43})`))
+  if (!m?.[1]) throw new Error(`No ${pathPrefix} link in mail:\n${text}`)
+  return m[1]
+}

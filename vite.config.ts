@@ -1,0 +1,86 @@
+import { fileURLToPath, URL } from 'node:url'
+import { quasar, transformAssetUrls } from '@quasar/vite-plugin'
+import vue from '@vitejs/plugin-vue'
+import { VitePWA } from 'vite-plugin-pwa'
+import { defineConfig } from 'vitest/config'
+
+export default defineConfig({
+  root: 'client',
+  publicDir: fileURLToPath(new URL('./public', import.meta.url)),
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./client', import.meta.url)),
+      '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+    },
+  },
+  plugins: [
+    vue({ template: { transformAssetUrls } }),
+    // After vue(), as the Quasar plugin requires. Brand colours live in client/css/brand.css as CSS variables,
+    // so the prebuilt Quasar CSS is used and no sass compiler is needed.
+    quasar({ sassVariables: false }),
+    VitePWA({
+      registerType: 'prompt',
+      injectRegister: false,
+      manifest: {
+        name: 'Rungs',
+        short_name: 'Rungs',
+        description: 'A private reflection journal for people in therapy.',
+        lang: 'en',
+        start_url: '/',
+        scope: '/',
+        display: 'standalone',
+        background_color: '#FAF7F2',
+        theme_color: '#3D4A7A',
+        icons: [
+          { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+          { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+          { src: '/icons/icon-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        ],
+      },
+      workbox: {
+        // Fonts too, so Lora and the icons render offline after one visit.
+        globPatterns: ['**/*.{js,css,html,woff,woff2,png,svg,ico,webmanifest}'],
+        navigateFallback: 'index.html',
+        navigateFallbackDenylist: [/^\/api\//],
+        cleanupOutdatedCaches: true,
+      },
+    }),
+  ],
+  build: {
+    outDir: fileURLToPath(new URL('./dist', import.meta.url)),
+    emptyOutDir: true,
+  },
+  server: {
+    port: 5173,
+    proxy: { '/api': 'http://localhost:3000' },
+  },
+  test: {
+    root: fileURLToPath(new URL('.', import.meta.url)),
+    projects: [
+      {
+        extends: true,
+        test: { name: 'unit', root: fileURLToPath(new URL('.', import.meta.url)), include: ['tests/unit/shared/**/*.spec.ts', 'tests/unit/server/**/*.spec.ts'], environment: 'node' },
+      },
+      {
+        extends: true,
+        test: { name: 'dom', root: fileURLToPath(new URL('.', import.meta.url)), include: ['tests/unit/client/**/*.spec.ts'], environment: 'happy-dom', setupFiles: ['tests/setup/dom.ts'] },
+      },
+      {
+        extends: true,
+        test: { name: 'api', root: fileURLToPath(new URL('.', import.meta.url)), include: ['tests/api/**/*.spec.ts'], environment: 'node', testTimeout: 20000 },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          root: fileURLToPath(new URL('.', import.meta.url)),
+          include: ['tests/e2e/**/*.spec.ts'],
+          environment: 'node',
+          testTimeout: 60000,
+          hookTimeout: 60000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+})
