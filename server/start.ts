@@ -1,5 +1,5 @@
 import type { AddressInfo } from 'node:net'
-import type { Server } from 'node:http'
+import http, { type Server } from 'node:http'
 import { createApp } from './app'
 import type { Config } from './config/env'
 import { initModels } from './db/associations'
@@ -31,14 +31,19 @@ export async function startServer(config: Readonly<Config>, log: (line: string) 
   if (fakeSmtp) log(`mail: local fake SMTP on 127.0.0.1:${fakeSmtp.port}; read it on the admin "Sent mail" page`)
   const mailer = createMailer({ smtpUrl: config.smtpUrl, fakePort: fakeSmtp?.port, from: config.mailFrom })
 
-  const deps: AppDeps = { config, sequelize, models, mailer, fakeSmtp, log }
-  const app = createApp(deps)
-  const server = await new Promise<Server>((resolve, reject) => {
-    const s = app.listen(config.port, config.host, () => resolve(s))
-    s.once('error', reject)
+  // Listen first, so that with PORT=0 the links in e-mails can name the port actually chosen.
+  const server = http.createServer()
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject)
+    server.listen(config.port, config.host, () => resolve())
   })
   const port = (server.address() as AddressInfo).port
   const host = config.host === '0.0.0.0' || config.host === '127.0.0.1' ? 'localhost' : config.host
+  const finalConfig = config.port === 0 && config.appUrl === 'http://localhost:0' ? Object.freeze({ ...config, appUrl: `http://${host}:${port}` }) : config
+
+  const deps: AppDeps = { config: finalConfig, sequelize, models, mailer, fakeSmtp, log }
+  const app = createApp(deps)
+  server.on('request', app)
 
   let closing: Promise<void> | undefined
   const close = () =>

@@ -70,7 +70,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
   }
   const e = parsed.data
   const dataDir = path.resolve(e.DATA_DIR)
-  const databaseFile = e.DATABASE_URL ? path.resolve(e.DATABASE_URL.replace(/^sqlite:(\/\/)?/, '')) : path.join(dataDir, 'rungs.sqlite')
+  const databaseFile = !e.DATABASE_URL
+    ? path.join(dataDir, 'rungs.sqlite')
+    : e.DATABASE_URL === 'sqlite::memory:'
+      ? ':memory:'
+      : path.resolve(e.DATABASE_URL.replace(/^sqlite:(\/\/)?/, ''))
   return Object.freeze({
     env: e.NODE_ENV,
     port: e.PORT,

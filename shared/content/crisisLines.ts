@@ -45,8 +45,8 @@ export const crisisRegions: readonly RegionResources[] = [
       {
         name: 'Crisis Text Line',
         detail: 'Text a trained volunteer, 24/7.',
-        text: { to: '741741', body: 'HOME' },
-        source: 'Crisis Text Line number confirmed; the keyword is from memory',
+        text: { to: '741741' },
+        source: 'Crisis Text Line number',
       },
     ],
   },
@@ -85,8 +85,8 @@ export const crisisRegions: readonly RegionResources[] = [
       {
         name: 'Shout',
         detail: 'Text support, 24/7.',
-        text: { to: '85258', body: 'SHOUT' },
-        source: 'Shout; the keyword is from memory',
+        text: { to: '85258' },
+        source: 'Shout',
       },
       {
         name: 'Papyrus HOPELINE247',

@@ -10,15 +10,16 @@ import { authController } from './auth.controller'
 export function authRoutes(deps: AppDeps, passport: ReturnType<typeof createPassport>, csrfToken: Parameters<typeof authController>[2]) {
   const c = authController(deps, passport, csrfToken)
   const signInLimit = limitPerIp(deps.config.signInLimit, { skipSuccessfulRequests: true })
-  const mailLimit = limitPerIp(deps.config.resetLimit)
+  // One counter per route, so asking for links a few times never blocks using one.
+  const mailLimit = () => limitPerIp(deps.config.resetLimit)
   const router = Router()
   router.get('/csrf', c.csrf)
-  router.post('/signup', mailLimit, validate({ body: signUpSchema }), c.signUp)
+  router.post('/signup', mailLimit(), validate({ body: signUpSchema }), c.signUp)
   router.post('/signin', signInLimit, validate({ body: signInSchema }), c.signIn)
   router.post('/signout', c.signOut)
   router.post('/verify', validate({ body: verifySchema }), c.verify)
-  router.post('/verify/resend', requireAuth, mailLimit, c.resendVerification)
-  router.post('/reset/request', mailLimit, validate({ body: resetRequestSchema }), c.requestReset)
-  router.post('/reset', mailLimit, validate({ body: resetConfirmSchema }), c.reset)
+  router.post('/verify/resend', requireAuth, mailLimit(), c.resendVerification)
+  router.post('/reset/request', mailLimit(), validate({ body: resetRequestSchema }), c.requestReset)
+  router.post('/reset', mailLimit(), validate({ body: resetConfirmSchema }), c.reset)
   return router
 }
