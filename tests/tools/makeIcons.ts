@@ -1,7 +1,7 @@
 // Renders public/icons/icon.svg to the PNG sizes the web manifest lists, with the system Chromium.
 import fs from 'node:fs'
 import path from 'node:path'
-import { freshContext } from '../tests/helpers/chromium'
+import { freshContext } from '../helpers/chromium'
 
 const svg = fs.readFileSync(path.resolve('public/icons/icon.svg'), 'utf8')
 const { context, close } = await freshContext({ width: 512, height: 512 })

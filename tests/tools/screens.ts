@@ -1,6 +1,6 @@
 // Screenshots of the main screens at phone and desktop size, for looking at by eye: npx tsx scripts/screens.ts [baseUrl]
 import fs from 'node:fs'
-import { freshContext } from '../tests/helpers/chromium'
+import { freshContext } from '../helpers/chromium'
 
 const base = process.argv[2] ?? 'http://localhost:3000'
 const out = '.screens'

@@ -1,0 +1,2 @@
+// A real IndexedDB implementation for Dexie under happy-dom.
+import 'fake-indexeddb/auto'
