@@ -23,7 +23,7 @@ describe('useSessionStore.ready', () => {
   })
 
   it('asks "who am I" once the device has signed in before', async () => {
-    const fetch = vi.fn(async () => new Response(JSON.stringify({ user: me, features: { sentMail: false } }), { status: 200 }))
+    const fetch = vi.fn(async (_url: string) => new Response(JSON.stringify({ user: me, features: { sentMail: false } }), { status: 200 }))
     vi.stubGlobal('fetch', fetch)
     await writeSetting('signedInBefore', true)
     const session = useSessionStore()
