@@ -12,6 +12,7 @@ import App from './App.vue'
 import { bootAppearance } from './boot/appearance'
 import { bootDeviceSettings } from './boot/deviceSettings'
 import { bootHttp } from './boot/http'
+import { bootJournal } from './boot/journal'
 import { router } from './router'
 
 const app = createApp(App)
@@ -20,5 +21,6 @@ app.use(Quasar, { plugins: { Notify, Dialog, Dark }, config: { notify: { positio
 bootAppearance()
 bootHttp()
 bootDeviceSettings()
+bootJournal()
 app.use(router)
 app.mount('#app')

@@ -1,5 +1,6 @@
 import Dexie, { type EntityTable } from 'dexie'
 import type { RegionCode } from '@shared/content/crisisLines'
+import type { Entry } from '@shared/schemas/entry.schema'
 
 /** Settings kept on this device, one row per key. */
 export interface DeviceSettings {
@@ -7,6 +8,14 @@ export interface DeviceSettings {
   region: RegionCode
   /** Set at the first sign-in on this device; until then the app never calls the server. */
   signedInBefore: boolean
+  /** When the person acknowledged the "your journal lives only on this device" notice. */
+  firstRunSeenAt: number
+  /** When the last backup file was made; drives the occasional reminder. */
+  lastBackupAt: number
+  /** When the backup reminder was last put aside. */
+  backupReminderSnoozedAt: number
+  /** Whether the browser granted persistent storage, as last asked. */
+  storagePersisted: boolean
 }
 export type SettingKey = keyof DeviceSettings
 export interface SettingRow<K extends SettingKey = SettingKey> {
@@ -14,12 +23,46 @@ export interface SettingRow<K extends SettingKey = SettingKey> {
   value: DeviceSettings[K]
 }
 
+/** An entry as stored: the shared Entry plus the words the search index uses. */
+export interface StoredEntry extends Entry {
+  words: string[]
+}
+
+/** A deleted entry, kept a while so Undo can bring it back. */
+export interface TrashedEntry {
+  id: string
+  entry: StoredEntry
+  deletedAt: number
+}
+
+/** Unsaved writing, saved as the person types, so a reload or crash loses nothing. */
+export interface Draft {
+  /** 'moment:new', 'tug:new', or 'edit:<entry id>'. */
+  id: string
+  kind: 'moment' | 'tug'
+  /** The entry being edited, when this draft edits one. */
+  entryId?: string
+  /** The fields typed so far, in the entry's own shape. */
+  data: Partial<Omit<Entry, 'id' | 'version' | 'shares' | 'updatedAt'>>
+  /** Where in the tug flow the person was. */
+  step?: string
+  updatedAt: number
+}
+
 /** The device database. Schema changes only ever add a version(n + 1). */
 export class RungsDB extends Dexie {
   settings!: EntityTable<SettingRow, 'key'>
+  entries!: EntityTable<StoredEntry, 'id'>
+  drafts!: EntityTable<Draft, 'id'>
+  trash!: EntityTable<TrashedEntry, 'id'>
 
   constructor(name = 'rungs') {
     super(name)
     this.version(1).stores({ settings: 'key' })
+    this.version(2).stores({
+      entries: 'id, createdAt, updatedAt, kind, *tags, *words',
+      drafts: 'id, updatedAt',
+      trash: 'id, deletedAt',
+    })
   }
 }

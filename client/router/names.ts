@@ -1,8 +1,16 @@
 /** Every route name, so a broken link is a compile error. */
 export const RouteName = {
   Today: 'today',
+  Journal: 'journal',
+  Entry: 'entry',
+  MomentEdit: 'momentEdit',
+  Tug: 'tug',
+  TugEdit: 'tugEdit',
+  Grounding: 'grounding',
+  Patterns: 'patterns',
   More: 'more',
   Settings: 'settings',
+  Backup: 'backup',
   SignIn: 'signIn',
   SignUp: 'signUp',
   Verify: 'verify',

@@ -16,8 +16,16 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('@/layouts/PersonLayout.vue'),
     children: [
       { path: '', name: RouteName.Today, component: () => import('@/pages/TodayPage.vue'), meta: { title: 'Today' } },
+      { path: 'journal', name: RouteName.Journal, component: () => import('@/pages/JournalPage.vue'), meta: { title: 'Journal' } },
+      { path: 'journal/:id', name: RouteName.Entry, component: () => import('@/pages/EntryPage.vue'), meta: { title: 'Entry' } },
+      { path: 'moment/:id', name: RouteName.MomentEdit, component: () => import('@/pages/MomentEditPage.vue'), meta: { title: 'Edit moment' } },
+      { path: 'tug', name: RouteName.Tug, component: () => import('@/pages/TugPage.vue'), meta: { title: 'Tug' } },
+      { path: 'tug/:id', name: RouteName.TugEdit, component: () => import('@/pages/TugPage.vue'), meta: { title: 'Edit tug' } },
+      { path: 'grounding', name: RouteName.Grounding, component: () => import('@/pages/GroundingPage.vue'), meta: { title: 'A pause' } },
+      { path: 'patterns', name: RouteName.Patterns, component: () => import('@/pages/PatternsPage.vue'), meta: { title: 'Patterns' } },
       { path: 'more', name: RouteName.More, component: () => import('@/pages/MorePage.vue'), meta: { title: 'More' } },
       { path: 'more/settings', name: RouteName.Settings, component: () => import('@/pages/SettingsPage.vue'), meta: { title: 'Settings' } },
+      { path: 'more/backup', name: RouteName.Backup, component: () => import('@/pages/BackupPage.vue'), meta: { title: 'Backup' } },
     ],
   },
   {

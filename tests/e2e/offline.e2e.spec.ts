@@ -11,7 +11,7 @@ describe('offline after one visit', () => {
     const { context, close } = await freshContext()
     const page = await context.newPage()
     await page.goto(server.url)
-    await page.getByRole('heading', { name: 'Welcome to Rungs' }).waitFor()
+    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined))
     // A first visit installs the worker; it controls the page from the next load.
     await page.reload()
@@ -21,7 +21,7 @@ describe('offline after one visit', () => {
     await context.setOffline(true)
 
     await page.reload()
-    await page.getByRole('heading', { name: 'Welcome to Rungs' }).waitFor()
+    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
     await page.getByRole('tab', { name: 'More' }).click()
     await page.getByRole('heading', { name: 'More' }).waitFor()
     await page.getByRole('button', { name: 'Help now' }).click()

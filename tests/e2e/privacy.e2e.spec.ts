@@ -12,7 +12,7 @@ describe('a device that has never signed in', () => {
     const page = await context.newPage()
     const requests = recordRequests(page)
     await page.goto(server.url)
-    await page.getByRole('heading', { name: 'Welcome to Rungs' }).waitFor()
+    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
     await page.getByRole('tab', { name: 'More' }).click()
     await page.getByRole('heading', { name: 'More' }).waitFor()
     await page.getByText('Settings', { exact: true }).first().click()

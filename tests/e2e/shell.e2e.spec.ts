@@ -25,7 +25,7 @@ describe('the app shell in Chromium', () => {
     const { context, close } = await freshContext()
     const page = await context.newPage()
     await page.goto(server.url)
-    await page.getByRole('heading', { name: 'Welcome to Rungs' }).waitFor()
+    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
     expect(await page.title()).toBe('Today · Rungs')
     await close()
   })

@@ -29,7 +29,7 @@ describe('a new version of the app', () => {
     const { context, close } = await freshContext()
     const page = await context.newPage()
     await page.goto(running.url)
-    await page.getByRole('heading', { name: 'Welcome to Rungs' }).waitFor()
+    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined))
     await page.reload()
     await page.waitForFunction(() => navigator.serviceWorker.controller !== null)
@@ -44,7 +44,7 @@ describe('a new version of the app', () => {
 
     await prompt.getByRole('button', { name: 'Reload now' }).click()
     await page.waitForFunction(() => !(window as unknown as { stillHere?: boolean }).stillHere)
-    await page.getByRole('heading', { name: 'Welcome to Rungs' }).waitFor()
+    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
     expect(await page.locator('[data-test=update-prompt]').count()).toBe(0)
     await close()
   })
