@@ -1,0 +1,63 @@
+/** Figures the bench page hands back to the runner; all times in milliseconds. */
+export interface Spread {
+  median: number
+  p95: number
+  max: number
+}
+
+export interface QueryTiming {
+  label: string
+  hits: number
+  /** Median of the timed rounds for this one query. */
+  ms: number
+  /** The first, untimed-for-summary round, before caches and the JIT warm up. */
+  coldMs: number
+}
+
+export interface BenchResults {
+  userAgent: string
+  /** When true, performance.now() is precise to microseconds rather than a tenth of a millisecond. */
+  crossOriginIsolated: boolean
+  save: {
+    count: number
+    dexie: Spread
+    /** Raw put into a store with the same indexes as the app's entries table. */
+    rawIndexed: Spread
+    /** Raw put into a store with no indexes, to show what the multi-entry indexes cost. */
+    rawPlain: Spread
+    ratio: number
+  }
+  /** createEntry again, once the journal holds the generated entries. */
+  saveWhenFull: Spread
+  generate: {
+    count: number
+    moments: number
+    tugs: number
+    distinctWords: number
+    buildMs: number
+    bulkAddMs: number
+  }
+  search: {
+    rounds: number
+    queries: QueryTiming[]
+    warm: Spread
+    cold: Spread
+  }
+  listAll: {
+    rows: number
+    coldMs: number
+    warm: Spread
+  }
+  storageBytes?: number
+}
+
+/** Nearest-rank percentile of already-collected samples. */
+export function percentile(samples: number[], p: number): number {
+  const sorted = [...samples].sort((a, b) => a - b)
+  const rank = Math.max(1, Math.ceil((p / 100) * sorted.length))
+  return sorted[rank - 1] ?? Number.NaN
+}
+
+export function spread(samples: number[]): Spread {
+  return { median: percentile(samples, 50), p95: percentile(samples, 95), max: Math.max(...samples) }
+}
