@@ -7,8 +7,14 @@ import type { StoredEntry } from './RungsDB'
 /** How long a deleted entry can still be brought back (and survives a closed tab). */
 export const TRASH_KEEP_MS = 24 * 60 * 60 * 1000
 
+/** Drops keys whose value is undefined, so a value never chosen is absent in IndexedDB, not a stored undefined. */
+function withoutUndefined<T extends object>(o: T): T {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as T
+}
+
 function toStored(entry: Entry): StoredEntry {
-  return { ...entrySchema.parse(entry), words: entryWords(entry) }
+  const parsed = entrySchema.parse(entry)
+  return { ...withoutUndefined(parsed), wants: parsed.wants.map(withoutUndefined), words: entryWords(parsed) }
 }
 
 /** Strips the index-only field, so callers see the shared Entry shape. */
