@@ -17,7 +17,7 @@ import { router } from './router'
 
 const app = createApp(App)
 app.use(createPinia())
-app.use(Quasar, { plugins: { Notify, Dialog, Dark }, config: { notify: { position: 'top' } } })
+app.use(Quasar, { plugins: { Notify, Dialog, Dark }, config: { notify: { position: 'top', timeout: 2500, group: false } } })
 bootAppearance()
 bootHttp()
 bootDeviceSettings()

@@ -32,7 +32,11 @@ export async function writeTug(page: Page, s: TugScript): Promise<void> {
   await page.locator('[data-test=tug-describe]').fill(s.describe)
   await step('describe')
   await next(page)
-  if (s.distressBefore) await page.locator('[data-test=distress-slider]').click()
+  if (s.distressBefore) {
+    // The slider answers the keyboard, as a person using one would: from the middle, three steps up.
+    await page.locator('[data-test=distress-slider]').focus()
+    for (let i = 0; i < 3; i++) await page.keyboard.press('ArrowRight')
+  }
   await step('distressBefore')
   await next(page)
   await page.locator('[data-test=want-text]').fill(s.wantA)

@@ -1,6 +1,7 @@
 // Screenshots of the journal flows at phone and desktop size, for looking at by eye: npx tsx tests/tools/journalScreens.ts [baseUrl]
 import fs from 'node:fs'
 import { freshContext } from '../helpers/chromium'
+import { seedDevice, seedEntries } from '../helpers/deviceSeed'
 import { sampleTug, saveMoment, writeTug } from '../helpers/journalFlows'
 
 const base = process.argv[2] ?? 'http://localhost:3000'
@@ -23,6 +24,7 @@ for (const [size, w, h] of [['phone', 390, 844], ['desktop', 1280, 800]] as cons
     await page.goto(base + '/journal')
     await page.waitForTimeout(600)
     await page.screenshot({ path: `${out}/j-${tag}-journal.png` })
+    await seedDevice(page, seedEntries(60, 30))
     await page.goto(base + '/patterns')
     await page.waitForTimeout(1200)
     await page.screenshot({ path: `${out}/j-${tag}-patterns.png`, fullPage: true })

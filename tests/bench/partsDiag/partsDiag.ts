@@ -39,39 +39,91 @@ async function run() {
   const end = Date.now()
   const rows = makeGenerator(2).journal(10_000, end).map((i) => toStoredRow(i, end))
   await db.entries.bulkAdd(rows)
-  const raw = await rawDb()
   const out: Record<string, unknown> = {}
-  const ordered = () => db.entries.orderBy('createdAt').reverse()
-  out['A orderBy(createdAt).reverse().keys()  [cursor]'] = await t(() => ordered().keys())
-  out['B orderBy(createdAt).reverse().primaryKeys()'] = await t(() => ordered().primaryKeys())
-  out['C Promise.all(A, B) as listJournal does'] = await t(() => Promise.all([ordered().keys(), ordered().primaryKeys()]))
-  out['D forward keys() (cursor)'] = await t(() => db.entries.orderBy('createdAt').keys())
-  out['E Dexie eachKey one cursor, key+primaryKey'] = await t(async () => { const k: unknown[] = []; const p: unknown[] = []; await ordered().eachKey((key, c) => { k.push(key); p.push(c.primaryKey) }) })
-  out['F raw openKeyCursor prev, key+primaryKey'] = await t(() => new Promise<void>((res, rej) => {
-    const k: unknown[] = []; const p: unknown[] = []
-    const r = raw.transaction('entries').objectStore('entries').index('createdAt').openKeyCursor(null, 'prev')
-    r.onsuccess = () => { const c = r.result; if (!c) return res(); k.push(c.key); p.push(c.primaryKey); c.continue() }
-    r.onerror = () => rej(r.error)
-  }))
-  out['G raw index.getAllKeys (primary keys, forward)'] = await t(() => req(raw.transaction('entries').objectStore('entries').index('createdAt').getAllKeys()))
-  const store = raw.transaction('entries').objectStore('entries') as IDBObjectStore & { index(n: string): IDBIndex & { getAllRecords?: (o: object) => IDBRequest } }
-  out['H getAllRecords available'] = typeof store.index('createdAt').getAllRecords === 'function'
-  out['I raw getAllRecords prev on createdAt (values too)'] = await t(() => req((raw.transaction('entries').objectStore('entries').index('createdAt') as any).getAllRecords({ direction: 'prev' })), 3)
-  out['J db.entries.toArray() (all rows)'] = await t(() => db.entries.toArray(), 3)
-  for (const w of ['work', 'st', 'sister', 'lighthouse', 'rehearse']) {
-    out[`K words startsWith(${w}).primaryKeys()`] = await t(() => db.entries.where('words').startsWith(w).primaryKeys())
-    out[`K'  ...+ new Set (size)`] = (await db.entries.where('words').startsWith(w).primaryKeys()).length
+  await new Promise((r) => setTimeout(r, 15000))
+  const queries: JournalFilter[] = [
+    { query: 'work' }, { query: 'sister' }, { query: 'tired' }, { query: 'ang' }, { query: 'over' }, { query: 'st' },
+    { query: 'work tired' }, { query: 'sister dinner' }, { query: 'anxious chest morning' }, { query: 'lighthouse' }, { query: 'quokka' },
+    { query: 'rehearse' }, { query: 'boundaries' }, { query: 'work', kinds: ['tug'] }, { query: 'sleep', kinds: ['moment'] }, { kinds: ['tug'] },
+    { from: end - 30 * 864e5, to: end }, { query: 'anxious', from: end - 90 * 864e5, to: end }, { query: 'work', from: end - 365 * 864e5, to: end - 182 * 864e5 },
+    { tag: 'family' }, { query: 'zebra' },
+  ]
+  const summary = (xs: number[]) => { const s = [...xs].sort((a, b) => a - b); return `median ${s[Math.floor(s.length / 2)]!.toFixed(2)} / p95 ${s[Math.ceil(0.95 * s.length) - 1]!.toFixed(2)} / max ${s[s.length - 1]!.toFixed(2)}` }
+  const same = async (f: JournalFilter, mine: { id: string; createdAt: number }[]) => {
+    const ref = await listJournal(f)
+    return ref.length === mine.length && ref.every((r, i) => r.id === mine[i]!.id && r.createdAt === mine[i]!.createdAt)
   }
-  out['L kind anyOf(tug).primaryKeys()'] = await t(() => db.entries.where('kind').anyOf(['tug']).primaryKeys())
-  out['M tags equals(family).primaryKeys()'] = await t(() => db.entries.where('tags').equals('family').primaryKeys())
-  const wset = new Set((await db.entries.where('words').startsWith('work').primaryKeys()) as string[])
-  const [times, ids] = await Promise.all([ordered().keys(), ordered().primaryKeys()])
-  out['N JS loop over 10 000 with Set.has'] = await t(async () => { const r = []; for (let i = 0; i < ids.length; i++) if (wset.has(ids[i] as string)) r.push({ id: ids[i], createdAt: times[i] }) })
-  for (const q of ['work', 'lighthouse', 'sister dinner', 'st']) {
-    out[`P listJournal(${q})`] = await t(() => listJournal({ query: q }))
-    out[`Q candidate bulkGet(${q})`] = await t(() => candidateBulkGet({ query: q }))
+  // Current.
+  const cur: number[] = []
+  for (const q of queries) cur.push(await t(() => listJournal(q), 3))
+  out['current listJournal, 21 queries'] = summary(cur)
+  out['current listJournal({})'] = await t(() => listJournal({}), 3)
+  // Minimal: one cursor instead of two, and bulkGet the matches when few.
+  const minimal = async (f: JournalFilter) => {
+    const sets: Set<string>[] = []
+    for (const w of searchWords(f.query)) sets.push(new Set((await db.entries.where('words').startsWith(w).primaryKeys()) as string[]))
+    if (f.kinds?.length) sets.push(new Set((await db.entries.where('kind').anyOf(f.kinds).primaryKeys()) as string[]))
+    if (f.tag) sets.push(new Set((await db.entries.where('tags').equals(f.tag).primaryKeys()) as string[]))
+    let wanted: Set<string> | undefined
+    if (sets.length) { const [first, ...rest] = sets.sort((a, b) => a.size - b.size); wanted = new Set([...first!].filter((k) => rest.every((x) => x.has(k)))) }
+    if (wanted && !wanted.size) return []
+    const from = f.from ?? 0, to = f.to ?? Number.MAX_SAFE_INTEGER
+    if (wanted && wanted.size <= 1000) {
+      const got = await db.entries.bulkGet([...wanted])
+      return got.filter((r) => r && r.createdAt >= from && r.createdAt <= to).map((r) => ({ id: r!.id, createdAt: r!.createdAt })).sort((a, b) => b.createdAt - a.createdAt || (a.id < b.id ? 1 : -1))
+    }
+    const range = f.from !== undefined || f.to !== undefined ? db.entries.where('createdAt').between(from, to, true, true) : db.entries.orderBy('createdAt')
+    const rows: { id: string; createdAt: number }[] = []
+    await range.reverse().eachKey((key, c) => { const id = c.primaryKey as string; if (!wanted || wanted.has(id)) rows.push({ id, createdAt: key as number }) })
+    return rows
   }
-  out['R listJournal({})'] = await t(() => listJournal({}))
+  const min: number[] = []
+  let minSame = 0
+  for (const q of queries) { min.push(await t(() => minimal(q), 3)); if (await same(q, await minimal(q))) minSame++ }
+  out['minimal (one cursor; bulkGet when <= 1000 match), 21 queries'] = summary(min)
+  out['minimal: results identical to listJournal'] = `${minSame} / ${queries.length}`
+  out['minimal listJournal({})'] = await t(() => minimal({}), 3)
+
+  // In memory: one read of all rows into compact arrays; queries answered in JS.
+  let mem: { ids: string[]; times: number[]; kinds: string[]; tags: string[][]; words: string[]; post: number[][] } | undefined
+  const buildMem = async () => {
+    const all = (await db.entries.toArray()).sort((a, b) => b.createdAt - a.createdAt || (a.id < b.id ? 1 : -1))
+    const byWord = new Map<string, number[]>()
+    all.forEach((r, i) => { for (const w of r.words) { let l = byWord.get(w); if (!l) byWord.set(w, (l = [])); l.push(i) } })
+    const words = [...byWord.keys()].sort()
+    mem = { ids: all.map((r) => r.id), times: all.map((r) => r.createdAt), kinds: all.map((r) => r.kind), tags: all.map((r) => r.tags), words, post: words.map((w) => byWord.get(w)!) }
+  }
+  const lower = (arr: string[], x: string) => { let lo = 0, hi = arr.length; while (lo < hi) { const m = (lo + hi) >> 1; if (arr[m]! < x) lo = m + 1; else hi = m } return lo }
+  const inMemory = async (f: JournalFilter) => {
+    await db.entries.count()
+    if (!mem) await buildMem()
+    const m = mem!
+    const n = m.ids.length
+    const terms = searchWords(f.query)
+    const mark = new Uint8Array(n)
+    terms.forEach((w, t) => {
+      for (let j = lower(m.words, w); j < m.words.length && m.words[j]!.startsWith(w); j++) for (const i of m.post[j]!) if (mark[i] === t) mark[i] = t + 1
+    })
+    const from = f.from ?? 0, to = f.to ?? Number.MAX_SAFE_INTEGER
+    const rows: { id: string; createdAt: number }[] = []
+    for (let i = 0; i < n; i++) {
+      if (mark[i] !== terms.length) continue
+      const time = m.times[i]!
+      if (time < from || time > to) continue
+      if (f.kinds?.length && !f.kinds.includes(m.kinds[i] as never)) continue
+      if (f.tag && !m.tags[i]!.includes(f.tag)) continue
+      rows.push({ id: m.ids[i]!, createdAt: time })
+    }
+    return rows
+  }
+  out['in-memory: db.entries.count() alone (what keeps liveQuery subscribed)'] = await t(() => db.entries.count())
+  const b0 = performance.now(); await buildMem(); out['in-memory: build (toArray + postings)'] = +(performance.now() - b0).toFixed(1)
+  const memT: number[] = []
+  let memSame = 0
+  for (const q of queries) { memT.push(await t(() => inMemory(q), 3)); if (await same(q, await inMemory(q))) memSame++ }
+  out['in-memory, 21 queries (count() included)'] = summary(memT)
+  out['in-memory: results identical to listJournal'] = `${memSame} / ${queries.length}`
+  out['in-memory listJournal({})'] = await t(() => inMemory({}), 3)
   return out
 }
 ;(window as any).runDiag = run
