@@ -2,6 +2,7 @@ import { searchWords } from '@shared/content/searchWords'
 import { entryInputSchema, entrySchema, type Entry, type EntryInput, type EntryKind } from '@shared/schemas/entry.schema'
 import { db } from './db'
 import { entryWords } from './entryWords'
+import { journalIndex } from './journalIndex'
 import type { StoredEntry } from './RungsDB'
 
 /** How long a deleted entry can still be brought back (and survives a closed tab). */
@@ -89,37 +90,29 @@ export interface JournalRow {
   createdAt: number
 }
 
-async function keysForWord(prefix: string): Promise<Set<string>> {
-  return new Set((await db.entries.where('words').startsWith(prefix).primaryKeys()) as string[])
-}
-
-function intersect(sets: Set<string>[]): Set<string> | undefined {
-  if (!sets.length) return undefined
-  const [first, ...rest] = [...sets].sort((a, b) => a.size - b.size)
-  return new Set([...first!].filter((k) => rest.every((s) => s.has(k))))
-}
-
 /**
- * The ids and times of matching entries, newest first. Reads only indexes (never whole rows), so it stays quick with
- * thousands of entries: each query word is a prefix lookup on the words index, each filter an index range.
+ * The ids and times of matching entries, newest first. Answered from the in-memory journal index, so typing in the
+ * search box never scans IndexedDB: each query word is a prefix lookup in a sorted word list, and filters are checks
+ * on rows already in memory.
  */
 export async function listJournal(filter: JournalFilter = {}): Promise<JournalRow[]> {
-  const sets: Set<string>[] = []
-  for (const word of searchWords(filter.query)) sets.push(await keysForWord(word))
-  if (filter.kinds?.length) sets.push(new Set((await db.entries.where('kind').anyOf(filter.kinds).primaryKeys()) as string[]))
-  if (filter.tag) sets.push(new Set((await db.entries.where('tags').equals(filter.tag).primaryKeys()) as string[]))
-  const wanted = intersect(sets)
-  if (wanted && !wanted.size) return []
-
-  const range = filter.from !== undefined || filter.to !== undefined
-    ? db.entries.where('createdAt').between(filter.from ?? 0, filter.to ?? Number.MAX_SAFE_INTEGER, true, true)
-    : db.entries.orderBy('createdAt')
-  const ordered = range.reverse()
-  const [times, ids] = await Promise.all([ordered.keys(), ordered.primaryKeys()])
+  // Reading the count ties a caller's liveQuery to every change of the table, so the list re-runs after each write.
+  await db.entries.count()
+  const index = await journalIndex()
+  let wanted: Set<string> | undefined
+  for (const word of searchWords(filter.query)) {
+    const ids = index.withPrefix(word)
+    wanted = wanted ? new Set([...wanted].filter((id) => ids.has(id))) : ids
+    if (!wanted.size) return []
+  }
+  const { kinds, tag, from, to } = filter
   const rows: JournalRow[] = []
-  for (let i = 0; i < ids.length; i++) {
-    const id = ids[i] as string
-    if (!wanted || wanted.has(id)) rows.push({ id, createdAt: times[i] as number })
+  for (const r of index.rows) {
+    if (wanted && !wanted.has(r.id)) continue
+    if (kinds?.length && !kinds.includes(r.kind)) continue
+    if (tag && !r.tags.includes(tag)) continue
+    if ((from !== undefined && r.createdAt < from) || (to !== undefined && r.createdAt > to)) continue
+    rows.push({ id: r.id, createdAt: r.createdAt })
   }
   return rows
 }

@@ -18,6 +18,8 @@ export interface BenchResults {
   userAgent: string
   /** When true, performance.now() is precise to microseconds rather than a tenth of a millisecond. */
   crossOriginIsolated: boolean
+  /** Idle pause between the bulk add and the first search. */
+  settleMs: number
   save: {
     count: number
     dexie: Spread

@@ -28,7 +28,7 @@ async function seriousViolations(page: Page): Promise<string[]> {
     .map((v: Violation) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
 }
 
-const personScreens = ['/', '/more', '/more/settings', '/signin', '/signup', '/forgot', '/no-such-page']
+const personScreens = ['/', '/journal', '/patterns', '/tug', '/grounding', '/more', '/more/settings', '/more/backup', '/signin', '/signup', '/forgot', '/no-such-page']
 
 describe.each(['light', 'dark'] as const)('accessibility in %s mode (axe-core)', (colorScheme) => {
   it('finds no serious or critical violations on the person and sign-in screens, or in Help now', async () => {

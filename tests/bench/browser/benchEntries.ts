@@ -75,7 +75,7 @@ export function makeGenerator(seed: number) {
     const before = distress()
     return {
       kind: 'moment',
-      body: body(170 + Math.floor(rand() * 60)),
+      body: body(140 + Math.floor(rand() * 60)),
       ...(before !== undefined && { distressBefore: before }),
       wants: [],
       backgroundThoughts: [],

@@ -49,6 +49,18 @@ describe('entriesRepository', () => {
     expect(await listJournal({ query: 'nowhere-to-be-found' })).toEqual([])
   })
 
+  it('keeps search in step with edits and deletes (the in-memory index is rebuilt after each change)', async () => {
+    const e = await createEntry(moment('Thunder at night'))
+    expect((await listJournal({ query: 'thunder' })).map((r) => r.id)).toEqual([e.id])
+    await updateEntry(e.id, { body: 'Rain at night' })
+    expect(await listJournal({ query: 'thunder' })).toEqual([])
+    expect((await listJournal({ query: 'rain' })).map((r) => r.id)).toEqual([e.id])
+    await trashEntry(e.id)
+    expect(await listJournal({ query: 'rain' })).toEqual([])
+    await restoreEntry(e.id)
+    expect((await listJournal({ query: 'rain' })).map((r) => r.id)).toEqual([e.id])
+  })
+
   it('filters by kind, tag and date range, newest first', async () => {
     const old = await createEntry(moment('Old one', { createdAt: Date.UTC(2026, 0, 5), tags: ['work'] }))
     const mid = await createEntry(tug({ createdAt: Date.UTC(2026, 5, 5) }))
