@@ -11,7 +11,7 @@ const rungs = [['Rest in the evenings', 'Having energy for my kids', 'Being a pr
 export function seedEntries(count: number, days: number, now = Date.now()): (Entry & { words: string[] })[] {
   const out: (Entry & { words: string[] })[] = []
   for (let i = 0; i < count; i++) {
-    const at = now - Math.round(((i * 7919) % (days * 24)) * 3_600_000 + (i % 5) * 600_000)
+    const at = now - Math.round(((i * 137) % (days * 24)) * 3_600_000 + (i % 5) * 600_000)
     const tug = i % 4 === 0
     const ladderA = rungs[i % 3]!.map((text, j) => ({ id: `a${i}-${j}`, text }))
     const ladderB = rungs[(i + 1) % 3]!.map((text, j) => ({ id: `b${i}-${j}`, text }))
