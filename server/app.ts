@@ -10,9 +10,12 @@ import { errorHandler } from './middleware/errorHandler'
 import { notFound } from './middleware/notFound'
 import { adminRoutes } from './modules/admin/admin.routes'
 import { authRoutes } from './modules/auth/auth.routes'
+import { linksRoutes } from './modules/links/links.routes'
 import { sentMailRoutes } from './modules/mail/mail.routes'
 import { meRoutes } from './modules/me/me.routes'
 import { personRoutes } from './modules/person/person.routes'
+import { prepRoutes } from './modules/prep/prep.routes'
+import { sharesRoutes } from './modules/shares/shares.routes'
 import { therapistRoutes } from './modules/therapist/therapist.routes'
 
 function securityHeaders(https: boolean): RequestHandler[] {
@@ -82,6 +85,10 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
   api.use('/person', personRoutes(deps))
   api.use('/therapist', therapistRoutes(deps))
   api.use('/admin', adminRoutes(deps))
+  // Links, shares and prep name their full paths and guard each route themselves.
+  api.use(linksRoutes(deps))
+  api.use(sharesRoutes(deps))
+  api.use(prepRoutes(deps))
   if (deps.fakeSmtp && config.env !== 'production') api.use('/admin/mail', sentMailRoutes(deps.fakeSmtp))
   api.use(notFound)
   app.use('/api', api)

@@ -13,4 +13,6 @@ export interface AppDeps {
   /** Present only when the local fake mail server is in use. */
   fakeSmtp?: FakeSmtp
   log: (line: string) => void
+  /** The clock for time rules (invitation expiry, digest period, "since the last session"); tests may replace it. */
+  now?: () => Date
 }

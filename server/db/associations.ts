@@ -1,7 +1,12 @@
 import type { Sequelize } from 'sequelize'
+import { Appointment } from './models/Appointment'
 import { AuditEvent } from './models/AuditEvent'
 import { EmailToken } from './models/EmailToken'
+import { Invitation } from './models/Invitation'
+import { Link } from './models/Link'
+import { PrepNote } from './models/PrepNote'
 import { Session } from './models/Session'
+import { SharedEntry } from './models/SharedEntry'
 import { TherapistProfile } from './models/TherapistProfile'
 import { User } from './models/User'
 
@@ -12,6 +17,11 @@ export function initModels(sequelize: Sequelize) {
   EmailToken.initModel(sequelize)
   AuditEvent.initModel(sequelize)
   Session.initModel(sequelize)
+  Invitation.initModel(sequelize)
+  Link.initModel(sequelize)
+  Appointment.initModel(sequelize)
+  SharedEntry.initModel(sequelize)
+  PrepNote.initModel(sequelize)
 
   User.hasOne(TherapistProfile, { foreignKey: { name: 'userId', allowNull: false }, as: 'therapistProfile', onDelete: 'CASCADE' })
   TherapistProfile.belongsTo(User, { foreignKey: 'userId', as: 'user' })
@@ -19,6 +29,16 @@ export function initModels(sequelize: Sequelize) {
   User.hasMany(EmailToken, { foreignKey: { name: 'userId', allowNull: false }, onDelete: 'CASCADE' })
   EmailToken.belongsTo(User, { foreignKey: 'userId' })
 
-  return { User, TherapistProfile, EmailToken, AuditEvent, Session }
+  Invitation.belongsTo(User, { foreignKey: 'therapistId', as: 'therapist' })
+  Link.belongsTo(User, { foreignKey: 'personId', as: 'person' })
+  Link.belongsTo(User, { foreignKey: 'therapistId', as: 'therapist' })
+  Link.hasMany(Appointment, { foreignKey: 'linkId', as: 'appointments', onDelete: 'CASCADE' })
+  Appointment.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
+  Link.hasMany(SharedEntry, { foreignKey: 'linkId', as: 'sharedEntries', onDelete: 'CASCADE' })
+  SharedEntry.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
+  Link.hasMany(PrepNote, { foreignKey: 'linkId', as: 'prepNotes', onDelete: 'CASCADE' })
+  PrepNote.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
+
+  return { User, TherapistProfile, EmailToken, AuditEvent, Session, Invitation, Link, Appointment, SharedEntry, PrepNote }
 }
 export type Models = ReturnType<typeof initModels>

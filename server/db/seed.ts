@@ -40,6 +40,14 @@ export async function seedDemoIfEmpty(models: Models, scryptCost: number): Promi
     approvalChecks: null,
     approvalNote: null,
   })
-  await make(demoAccounts.person, 'person')
+  const person = await make(demoAccounts.person, 'person')
+  // An active link between Robin and Amara, with one past and one coming session, relative to now so it never goes stale.
+  const day = 24 * 60 * 60 * 1000
+  const now = Date.now()
+  const link = await models.Link.create({ personId: person.id, therapistId: therapist.id, state: 'active', startedAt: new Date(now - 21 * day), endedAt: null, endedBy: null })
+  await models.Appointment.bulkCreate([
+    { linkId: link.id, at: new Date(now - 7 * day) },
+    { linkId: link.id, at: new Date(now + 7 * day) },
+  ])
   return true
 }

@@ -1,0 +1,131 @@
+import { Op } from 'sequelize'
+import type { Entry } from '../../../shared/schemas/entry.schema'
+import type { CaseloadRow, PrepNoteRow } from '../../../shared/schemas/prep.schema'
+import type { SharePatch, SharedEntryView } from '../../../shared/schemas/share.schema'
+import type { AppDeps } from '../../deps'
+import type { PrepNote } from '../../db/models/PrepNote'
+import { HttpError } from '../../middleware/HttpError'
+import { clock, linkOfTherapist } from '../links/linkAccess'
+import { lastSessionOf } from '../links/links.service'
+
+type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'now'>
+
+const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
+const live = { withdrawnAt: null, payload: { [Op.ne]: null } }
+
+/**
+ * One row per active link of this therapist: who, when they last shared, how many copies arrived since the last session
+ * (the latest past appointment, else the link's start), how many are marked to discuss, the next appointment and whether
+ * any live copy carries a risk flag. Counts only: no content, so no audit row.
+ */
+export async function caseload(deps: Deps, therapistId: string): Promise<CaseloadRow[]> {
+  const links = await deps.models.Link.findAll({ where: { therapistId, state: 'active' }, include: [{ model: deps.models.User, as: 'person' }], order: [['startedAt', 'ASC']] })
+  const now = clock(deps)
+  return Promise.all(
+    links.map(async (link) => {
+      const [shares, lastSession, next] = await Promise.all([
+        deps.models.SharedEntry.findAll({ where: { linkId: link.id, ...live }, attributes: ['sharedAt', 'toDiscuss', 'riskFlag'] }),
+        lastSessionOf(deps, link),
+        deps.models.Appointment.findOne({ where: { linkId: link.id, at: { [Op.gt]: now } }, order: [['at', 'ASC']] }),
+      ])
+      const since = lastSession ?? link.startedAt
+      const lastShared = shares.reduce<Date | null>((max, s) => (s.sharedAt && (!max || s.sharedAt > max) ? s.sharedAt : max), null)
+      return {
+        linkId: link.id,
+        person: { displayName: link.person!.displayName },
+        startedAt: iso(link.startedAt),
+        lastSessionAt: iso(lastSession),
+        lastSharedAt: iso(lastShared),
+        newSinceLastSession: shares.filter((s) => s.sharedAt && (!since || s.sharedAt > since)).length,
+        toDiscussCount: shares.filter((s) => s.toDiscuss).length,
+        nextAppointment: iso(next?.at),
+        riskFlag: shares.some((s) => s.riskFlag),
+      }
+    }),
+  )
+}
+
+/**
+ * The live shared copies of one active link, newest first. Returning content is what "opened" means in the person's access
+ * log, so one audit row per returned entry is written (actor: therapist; subjectUserId: person; subjectId: the shared
+ * copy's id, which names link and entry together) in the same transaction as the read. An empty answer writes nothing.
+ */
+export async function readShares(deps: Deps, therapistId: string, linkId: string): Promise<SharedEntryView[]> {
+  const link = await linkOfTherapist(deps, therapistId, linkId)
+  return deps.sequelize.transaction(async (transaction) => {
+    const rows = await deps.models.SharedEntry.findAll({ where: { linkId, ...live }, order: [['sharedAt', 'DESC']], transaction })
+    const at = clock(deps)
+    if (rows.length) {
+      await deps.models.AuditEvent.bulkCreate(
+        rows.map((r) => ({ actorId: therapistId, action: 'shares.read', subjectUserId: link.personId, subjectId: r.id, at })),
+        { transaction },
+      )
+    }
+    return rows.map((r) => ({
+      entryId: r.entryId,
+      kind: r.kind,
+      version: r.version,
+      payload: JSON.parse(r.payload!) as Entry,
+      sharedAt: iso(r.sharedAt),
+      readAt: iso(r.readAt),
+      toDiscuss: r.toDiscuss,
+      riskFlag: r.riskFlag,
+    }))
+  })
+}
+
+/** Marks a live shared copy read or unread, and to discuss or not. Answers with the flags only, never the payload. */
+export async function patchShare(deps: Deps, therapistId: string, linkId: string, entryId: string, patch: SharePatch) {
+  await linkOfTherapist(deps, therapistId, linkId)
+  const row = await deps.models.SharedEntry.findOne({ where: { linkId, entryId, ...live } })
+  if (!row) throw new HttpError(404, 'not_found', 'There is no such shared entry.')
+  await row.update({
+    ...(patch.read === undefined ? {} : { readAt: patch.read ? (row.readAt ?? clock(deps)) : null }),
+    ...(patch.toDiscuss === undefined ? {} : { toDiscuss: patch.toDiscuss }),
+  })
+  return { entryId: row.entryId, readAt: iso(row.readAt), toDiscuss: row.toDiscuss }
+}
+
+const toNoteRow = (n: PrepNote): PrepNoteRow => ({ id: n.id, text: n.text, createdAt: n.createdAt.toISOString(), updatedAt: n.updatedAt.toISOString() })
+
+/** The therapist's own working notes on a link, newest first. They outlive the link, and are never shown to the person. */
+export async function listNotes(deps: Deps, therapistId: string, linkId: string): Promise<PrepNoteRow[]> {
+  await linkOfTherapist(deps, therapistId, linkId, { anyState: true })
+  const notes = await deps.models.PrepNote.findAll({ where: { linkId, therapistId }, order: [['createdAt', 'DESC']] })
+  return notes.map(toNoteRow)
+}
+
+/** Adds a note to an active link. */
+export async function addNote(deps: Deps, therapistId: string, linkId: string, text: string): Promise<PrepNoteRow> {
+  await linkOfTherapist(deps, therapistId, linkId)
+  return toNoteRow(await deps.models.PrepNote.create({ linkId, therapistId, text }))
+}
+
+async function ownNote(deps: Deps, therapistId: string, linkId: string, noteId: string) {
+  await linkOfTherapist(deps, therapistId, linkId, { anyState: true })
+  const note = await deps.models.PrepNote.findOne({ where: { id: noteId, linkId, therapistId } })
+  if (!note) throw new HttpError(404, 'not_found', 'There is no such note.')
+  return note
+}
+
+/** Edits one of the therapist's own notes; after the link has ended the notes stay as they were. */
+export async function editNote(deps: Deps, therapistId: string, linkId: string, noteId: string, text: string): Promise<PrepNoteRow> {
+  await linkOfTherapist(deps, therapistId, linkId)
+  const note = await ownNote(deps, therapistId, linkId, noteId)
+  return toNoteRow(await note.update({ text }))
+}
+
+/** Deletes one of the therapist's own notes. */
+export async function deleteNote(deps: Deps, therapistId: string, linkId: string, noteId: string): Promise<void> {
+  const note = await ownNote(deps, therapistId, linkId, noteId)
+  await note.destroy()
+}
+
+/** The therapist's notes on one link as a plain-text file, oldest first, for their own records. */
+export async function exportNotesText(deps: Deps, therapistId: string, linkId: string): Promise<string> {
+  const link = await linkOfTherapist(deps, therapistId, linkId, { anyState: true })
+  const person = await deps.models.User.findByPk(link.personId)
+  const notes = (await listNotes(deps, therapistId, linkId)).reverse()
+  const head = `Working notes: ${person?.displayName ?? 'linked person'} (link ${link.id})\nExported ${clock(deps).toISOString()}\n`
+  return [head, ...notes.map((n) => `--- ${n.createdAt}${n.updatedAt !== n.createdAt ? ` (edited ${n.updatedAt})` : ''}\n${n.text}\n`)].join('\n')
+}
