@@ -26,6 +26,7 @@ export const routes: RouteRecordRaw[] = [
       { path: 'more', name: RouteName.More, component: () => import('@/pages/MorePage.vue'), meta: { title: 'More' } },
       { path: 'more/settings', name: RouteName.Settings, component: () => import('@/pages/SettingsPage.vue'), meta: { title: 'Settings' } },
       { path: 'more/backup', name: RouteName.Backup, component: () => import('@/pages/BackupPage.vue'), meta: { title: 'Backup' } },
+      { path: 'more/share', name: RouteName.Share, component: () => import('@/pages/SharePage.vue'), meta: { title: 'Sharing' } },
     ],
   },
   {
@@ -44,7 +45,10 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('@/layouts/TherapistLayout.vue'),
     meta: { roles: ['therapist'] },
     children: [
-      { path: '', redirect: { name: RouteName.TherapistSettings } },
+      { path: '', redirect: { name: RouteName.Caseload } },
+      { path: 'caseload', name: RouteName.Caseload, component: () => import('@/pages/CaseloadPage.vue'), meta: { title: 'Caseload' } },
+      { path: 'prep/:linkId', name: RouteName.Prep, component: () => import('@/pages/PrepPage.vue'), meta: { title: 'Prep' } },
+      { path: 'invitations', name: RouteName.Invitations, component: () => import('@/pages/InvitationsPage.vue'), meta: { title: 'Invitations' } },
       { path: 'settings', name: RouteName.TherapistSettings, component: () => import('@/pages/TherapistSettingsPage.vue'), meta: { title: 'Settings' } },
     ],
   },
