@@ -29,7 +29,7 @@ export async function makeTestApp(env: Record<string, string> = {}, overrides: P
   if (config.seedDemo) await seedDemoIfEmpty(models, config.scryptCost)
   const fakeSmtp = await startFakeSmtp({ port: 0, env: config.env })
   const mailer = createMailer({ fakePort: fakeSmtp.port, from: config.mailFrom })
-  const deps = { config, sequelize, models, mailer, fakeSmtp, log: () => {} }
+  const deps = { config, sequelize, models, mailer, fakeSmtp, log: process.env.TEST_LOG ? (l: string) => console.log(l) : () => {} }
   const app = createApp(deps)
   return {
     app,
