@@ -13,6 +13,7 @@ import { bootAppearance } from './boot/appearance'
 import { bootDeviceSettings } from './boot/deviceSettings'
 import { bootHttp } from './boot/http'
 import { bootJournal } from './boot/journal'
+import { bootSync } from './boot/sync'
 import { router } from './router'
 
 const app = createApp(App)
@@ -22,5 +23,6 @@ bootAppearance()
 bootHttp()
 bootDeviceSettings()
 bootJournal()
+bootSync()
 app.use(router)
 app.mount('#app')

@@ -1,6 +1,7 @@
 import Dexie, { type EntityTable } from 'dexie'
 import type { RegionCode } from '@shared/content/crisisLines'
 import type { Entry } from '@shared/schemas/entry.schema'
+import type { PersonLinkRow } from '@shared/schemas/link.schema'
 
 /** Settings kept on this device, one row per key. */
 export interface DeviceSettings {
@@ -49,12 +50,38 @@ export interface Draft {
   updatedAt: number
 }
 
+/**
+ * One pending send of a share, ONE row per entry and link (id `${entryId}:${linkId}`): a newer op or version replaces the
+ * older, so repeated edits coalesce instead of piling up.
+ */
+export interface OutboxRow {
+  id: string
+  entryId: string
+  linkId: string
+  op: 'put' | 'delete'
+  /** The entry version this op is for. */
+  version: number
+  attempts: number
+  nextAttemptAt: number
+  /** Set after the last automatic attempt; the row stays until the person retries. */
+  failed?: boolean
+  /** Plain words for the person; never entry text. */
+  lastError?: string
+}
+
+/** A copy of one of the person's links, for showing sharing offline. */
+export interface StoredLink extends PersonLinkRow {
+  syncedAt: number
+}
+
 /** The device database. Schema changes only ever add a version(n + 1). */
 export class RungsDB extends Dexie {
   settings!: EntityTable<SettingRow, 'key'>
   entries!: EntityTable<StoredEntry, 'id'>
   drafts!: EntityTable<Draft, 'id'>
   trash!: EntityTable<TrashedEntry, 'id'>
+  outbox!: EntityTable<OutboxRow, 'id'>
+  links!: EntityTable<StoredLink, 'id'>
 
   constructor(name = 'rungs') {
     super(name)
@@ -63,6 +90,10 @@ export class RungsDB extends Dexie {
       entries: 'id, createdAt, updatedAt, kind, *tags, *words',
       drafts: 'id, updatedAt',
       trash: 'id, deletedAt',
+    })
+    this.version(3).stores({
+      outbox: 'id, [entryId+linkId], nextAttemptAt',
+      links: 'id',
     })
   }
 }

@@ -1,8 +1,10 @@
 import { defineStore } from 'pinia'
 import type { Entry, EntryInput } from '@shared/schemas/entry.schema'
 import { useLiveQuery } from '@/composables/useLiveQuery'
-import { countEntries, createEntry, recentEntries, restoreEntry, tagsInUse, trashEntry, updateEntry } from '@/db/entriesRepository'
+import { countEntries, createEntry, recentEntries, restoreEntry, tagsInUse, trashEntry } from '@/db/entriesRepository'
+import { queueShare, queueWithdraw, updateEntryAndRequeue } from '@/db/outboxRepository'
 import { requestPersistentStorage } from '@/db/storageRepository'
+import { kickOutbox } from '@/sync/outboxRunner'
 
 /** The journal on this device: recent entries, tags in use, and the write path (Dexie first, visible at once). */
 export const useEntriesStore = defineStore('entries', () => {
@@ -17,8 +19,23 @@ export const useEntriesStore = defineStore('entries', () => {
     return entry
   }
 
+  /** Saves an edit; a shared entry's copy follows it (one outbox row per link, replaced by each newer version). */
   async function update(id: string, patch: Partial<EntryInput>): Promise<Entry> {
-    return updateEntry(id, patch)
+    const entry = await updateEntryAndRequeue(id, patch)
+    if (entry.shares.some((s) => s.state === 'queued')) void kickOutbox()
+    return entry
+  }
+
+  /** Shares a copy with a linked therapist: written to the device first (waiting to send), then sent when possible. */
+  async function share(entryId: string, linkId: string): Promise<void> {
+    await queueShare(entryId, linkId)
+    void kickOutbox()
+  }
+
+  /** Takes the copy back from the therapist; what they already read may be in their own records. */
+  async function withdraw(entryId: string, linkId: string): Promise<void> {
+    await queueWithdraw(entryId, linkId)
+    void kickOutbox()
   }
 
   /** Deletes with an undo: returns the function that brings the entry back. */
@@ -27,5 +44,5 @@ export const useEntriesStore = defineStore('entries', () => {
     return () => restoreEntry(id)
   }
 
-  return { recent, recentLoaded, tags, count, create, update, remove }
+  return { recent, recentLoaded, tags, count, create, update, share, withdraw, remove }
 })

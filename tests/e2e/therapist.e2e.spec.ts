@@ -1,0 +1,215 @@
+import { randomUUID } from 'node:crypto'
+import fs from 'node:fs'
+import { createRequire } from 'node:module'
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Entry } from '../../shared/schemas/entry.schema'
+import { demoAccounts } from '../../server/db/seed'
+import { freshContext } from '../helpers/chromium'
+import { signInThroughForm, startE2eServer } from '../helpers/e2eServer'
+
+const require = createRequire(import.meta.url)
+// Injected by evaluate: the strict CSP blocks addScriptTag.
+const axeSource = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8')
+
+interface Violation { id: string; impact: string; help: string; nodes: { target: string[] }[] }
+async function seriousViolations(page: Page): Promise<string[]> {
+  await page.evaluate(axeSource)
+  const violations = await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: Violation[] }> } }).axe
+    return (await axe.run(document, { resultTypes: ['violations'] })).violations
+  })
+  return violations
+    .filter((v: Violation) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v: Violation) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
+}
+
+/** The person's side, over plain fetch with a small cookie jar, the way the device's outbox would share. */
+async function signInAsPerson(base: string) {
+  const jar = new Map<string, string>()
+  let csrf = ''
+  const call = async (method: string, path: string, body?: unknown) => {
+    const headers: Record<string, string> = { accept: 'application/json', cookie: [...jar].map(([k, v]) => `${k}=${v}`).join('; ') }
+    if (body !== undefined) headers['content-type'] = 'application/json'
+    if (method !== 'GET') headers['x-csrf-token'] = csrf
+    const res = await fetch(base + path, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) })
+    for (const c of res.headers.getSetCookie()) {
+      const [pair] = c.split(';')
+      const at = pair!.indexOf('=')
+      jar.set(pair!.slice(0, at), pair!.slice(at + 1))
+    }
+    return { status: res.status, body: (await res.json()) as Record<string, unknown> }
+  }
+  csrf = String((await call('GET', '/api/auth/csrf')).body.csrfToken)
+  const signedIn = await call('POST', '/api/auth/signin', { email: demoAccounts.person.email, password: demoAccounts.person.password })
+  expect(signedIn.status).toBe(200)
+  csrf = String(signedIn.body.csrfToken)
+  return call
+}
+
+const now = Date.now()
+const tug: Entry = {
+  id: randomUUID(),
+  kind: 'tug',
+  createdAt: now - 60 * 60 * 1000,
+  updatedAt: now - 60 * 60 * 1000,
+  version: 1,
+  body: 'Whether to go to my sister’s birthday',
+  distressBefore: 70,
+  distressAfter: 45,
+  wants: [
+    { text: 'Stay home and rest', importance: 8, ladder: [{ id: 'a1', text: 'Not be overwhelmed' }, { id: 'a2', text: 'Feel steady in myself' }] },
+    { text: 'Go to the party', importance: 6, ladder: [{ id: 'b1', text: 'Show her I care' }, { id: 'b2', text: 'Feel close to my family' }] },
+  ],
+  meetingPoint: 'Feeling safe with the people I love',
+  backgroundThoughts: ['I always let people down'],
+  tags: ['family'],
+  shares: [],
+}
+const riskWords = 'I keep thinking I want to end my life'
+const moment: Entry = { id: randomUUID(), kind: 'moment', createdAt: now - 30 * 60 * 1000, updatedAt: now - 30 * 60 * 1000, version: 1, body: riskWords, distressBefore: 85, wants: [], backgroundThoughts: [], tags: [], shares: [] }
+const noteText = 'Ask about the party and about the thoughts of ending things; check the safety plan.'
+
+let server: Awaited<ReturnType<typeof startE2eServer>>
+let person: Awaited<ReturnType<typeof signInAsPerson>>
+let linkId = ''
+beforeAll(async () => {
+  server = await startE2eServer()
+  person = await signInAsPerson(server.url)
+  const links = (await person('GET', '/api/person/links')).body.links as { id: string; state: string }[]
+  linkId = links.find((l) => l.state === 'active')!.id
+  for (const entry of [tug, moment]) {
+    const put = await person('PUT', `/api/links/${linkId}/shares/${entry.id}`, { version: 1, payload: entry })
+    expect(put.body.status).toBe('stored')
+  }
+  fs.mkdirSync('.screens', { recursive: true })
+})
+afterAll(async () => { await server?.close() })
+
+describe('the therapist reads what was shared, in Chromium', () => {
+  it('shows the caseload with new entries and a worded risk flag, and prep with both entries, notes and flags', async () => {
+    const { context, close } = await freshContext({ width: 1280, height: 800 })
+    const page = await context.newPage()
+    await signInThroughForm(page, server.url, demoAccounts.therapist.email, demoAccounts.therapist.password)
+    expect(new URL(page.url()).pathname).toBe('/therapist/caseload')
+
+    const row = page.locator('[data-test=caseload-table] tbody tr').filter({ hasText: demoAccounts.person.displayName })
+    await row.waitFor()
+    expect((await row.locator('td').nth(2).textContent())?.trim()).toBe('2')
+    expect(await row.locator('[data-test=risk-flag]').textContent()).toContain('Risk language in a shared entry')
+    expect(await page.locator('[data-test=flag-note]').textContent()).toContain('follow your local risk procedures')
+    expect(await seriousViolations(page)).toEqual([])
+    await page.screenshot({ path: '.screens/caseload-1280.png', fullPage: true })
+
+    await row.locator('td').nth(3).click()
+    await page.waitForURL((u) => u.pathname === `/therapist/prep/${linkId}`)
+    await page.locator('[data-test=prep-name]').waitFor()
+    expect(await page.locator('[data-test=prep-name]').textContent()).toBe(demoAccounts.person.displayName)
+    expect(await page.locator('[data-test=prep-since]').textContent()).toMatch(/^Since the last session \(\w+day \d{1,2} \w+ \d{4}\)$/)
+    const entries = page.locator('[data-test=prep-entry]')
+    expect(await entries.count()).toBe(2)
+    const tugCard = entries.filter({ hasText: 'Stay home and rest' })
+    for (const text of ['Not be overwhelmed', 'Feel steady in myself', 'Show her I care', 'Feel close to my family', 'I always let people down']) {
+      expect(await tugCard.getByText(text, { exact: true }).isVisible()).toBe(true)
+    }
+    expect(await tugCard.locator('[data-test=meeting-point]').textContent()).toContain('Feeling safe with the people I love')
+    expect(await tugCard.locator('[data-test=entry-distress]').textContent()).toContain('before 70, after 45')
+    expect(await tugCard.locator('[data-test=entry-risk-flag]').count()).toBe(0)
+    const momentCard = entries.filter({ hasText: riskWords })
+    expect(await momentCard.locator('[data-test=entry-risk-flag]').isVisible()).toBe(true)
+
+    await momentCard.locator('[data-test=mark-read]').click()
+    await momentCard.locator('[data-test=mark-read][aria-pressed=true]').waitFor()
+    await momentCard.locator('[data-test=to-discuss]').click()
+    await momentCard.locator('[data-test=to-discuss][aria-pressed=true]').waitFor()
+    const stored = await server.deps.models.SharedEntry.findOne({ where: { linkId, entryId: moment.id } })
+    expect(stored?.readAt).toBeInstanceOf(Date)
+    expect(stored?.toDiscuss).toBe(true)
+    const untouched = await server.deps.models.SharedEntry.findOne({ where: { linkId, entryId: tug.id } })
+    expect(untouched?.readAt).toBeNull()
+
+    expect(await page.locator('[data-test=notes-private]').textContent()).toBe("Your working notes. They are never shown in the person's app.")
+    await page.getByLabel('A new note').fill(noteText)
+    await page.locator('[data-test=note-add]').click()
+    await page.locator('[data-test=note]').filter({ hasText: noteText }).waitFor()
+    expect(await server.deps.models.PrepNote.count({ where: { linkId } })).toBe(1)
+    const personSees = await person('GET', `/api/person/links/${linkId}/shares`)
+    expect(personSees.status).toBe(200)
+    expect(JSON.stringify(personSees.body)).not.toContain('party and about')
+
+    expect(await seriousViolations(page)).toEqual([])
+    await page.screenshot({ path: '.screens/prep-1280.png', fullPage: true })
+    await close()
+  })
+
+  it('works on a phone: caseload cards and a readable prep page', async () => {
+    const { context, close } = await freshContext({ width: 390, height: 844 })
+    const page = await context.newPage()
+    await signInThroughForm(page, server.url, demoAccounts.therapist.email, demoAccounts.therapist.password)
+    const card = page.locator('[data-test=caseload-card]').filter({ hasText: demoAccounts.person.displayName })
+    await card.waitFor()
+    expect(await card.locator('[data-test=risk-flag]').textContent()).toContain('Risk language in a shared entry')
+    expect(await card.textContent()).toContain('To discuss1')
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390)
+    expect(await seriousViolations(page)).toEqual([])
+    await page.screenshot({ path: '.screens/caseload-390.png', fullPage: true })
+    await card.click()
+    await page.locator('[data-test=prep-entry]').first().waitFor()
+    expect(await page.locator('[data-test=prep-entry]').count()).toBe(2)
+    const width = await page.evaluate(() => document.documentElement.scrollWidth)
+    expect(width).toBeLessThanOrEqual(390)
+    expect(await seriousViolations(page)).toEqual([])
+    await page.screenshot({ path: '.screens/prep-390.png', fullPage: true })
+    await close()
+  })
+
+  it('makes an invitation code shown once and lists it as open', async () => {
+    const { context, close } = await freshContext({ width: 1280, height: 800 })
+    const page = await context.newPage()
+    await signInThroughForm(page, server.url, demoAccounts.therapist.email, demoAccounts.therapist.password)
+    await page.goto(server.url + '/therapist/invitations')
+    await page.getByLabel('Their e-mail (optional)').fill('sam.e2e@example.org')
+    await page.locator('[data-test=invite-create]').click()
+    const code = page.locator('[data-test=invite-code]')
+    await code.waitFor()
+    expect(await code.textContent()).toMatch(/^[A-HJ-NP-Z2-9]{4}-[A-HJ-NP-Z2-9]{4}$/)
+    expect(await page.locator('[data-test=invite-code-box]').textContent()).toContain('expires in 7 days')
+    await page.locator('[data-test=invitation]').filter({ hasText: 'sam.e2e@example.org' }).waitFor()
+    expect(await server.deps.models.Invitation.count({ where: { email: 'sam.e2e@example.org' } })).toBe(1)
+    expect(await seriousViolations(page)).toEqual([])
+    await page.screenshot({ path: '.screens/invitations-1280.png', fullPage: true })
+    await close()
+  })
+
+  it('tells a therapist who is not approved yet, with a way to Settings', async () => {
+    const { context, close } = await freshContext({ width: 1280, height: 800 })
+    const page = await context.newPage()
+    await signInThroughForm(page, server.url, demoAccounts.pendingTherapist.email, demoAccounts.pendingTherapist.password)
+    const box = page.locator('[data-test=not-approved]')
+    await box.waitFor()
+    expect(await box.getByRole('link', { name: 'Settings' }).getAttribute('href')).toBe('/therapist/settings')
+    expect(await page.locator('[data-test=caseload-table]').count()).toBe(0)
+    await close()
+  })
+
+  it('ends the link after a warning that offers printing first, removing the shared copies', async () => {
+    const { context, close } = await freshContext({ width: 1280, height: 800 })
+    const page = await context.newPage()
+    await signInThroughForm(page, server.url, demoAccounts.therapist.email, demoAccounts.therapist.password)
+    await page.goto(`${server.url}/therapist/prep/${linkId}`)
+    await page.locator('[data-test=end-link]').click()
+    const dialog = page.getByRole('alertdialog')
+    await dialog.waitFor()
+    expect(await dialog.textContent()).toContain('removes every shared copy from Rungs')
+    expect(await dialog.locator('[data-test=print-first]').isVisible()).toBe(true)
+    await page.screenshot({ path: '.screens/end-link-1280.png' })
+    await dialog.locator('[data-test=end-link-confirm]').click()
+    await page.waitForURL((u) => u.pathname === '/therapist/caseload')
+    await page.locator('[data-test=caseload-empty]').waitFor()
+    expect(await page.locator('[data-test=caseload-empty]').textContent()).toContain('No one is linked yet')
+    const link = await server.deps.models.Link.findByPk(linkId)
+    expect(link?.state).toBe('ended')
+    expect(await server.deps.models.SharedEntry.count({ where: { linkId, payload: null } })).toBe(2)
+    await close()
+  })
+})
