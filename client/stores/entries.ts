@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import type { Entry, EntryInput } from '@shared/schemas/entry.schema'
 import { useLiveQuery } from '@/composables/useLiveQuery'
-import { countEntries, createEntry, recentEntries, restoreEntry, tagsInUse, trashEntry } from '@/db/entriesRepository'
+import { countEntries, createEntry, getEntry, recentEntries, restoreEntry, tagsInUse, trashEntry } from '@/db/entriesRepository'
 import { queueShare, queueWithdraw, updateEntryAndRequeue } from '@/db/outboxRepository'
 import { requestPersistentStorage } from '@/db/storageRepository'
 import { kickOutbox } from '@/sync/outboxRunner'
@@ -38,10 +38,17 @@ export const useEntriesStore = defineStore('entries', () => {
     void kickOutbox()
   }
 
-  /** Deletes with an undo: returns the function that brings the entry back. */
-  async function remove(id: string): Promise<() => Promise<boolean>> {
+  /**
+   * Deletes with an undo: returns the function that brings the entry back. A copy held by a therapist is withdrawn
+   * first, so deleting here never leaves the entry readable elsewhere; Undo brings it back private.
+   */
+  async function remove(id: string): Promise<{ undo: () => Promise<boolean>; withdrew: number }> {
+    const entry = await getEntry(id)
+    const held = entry?.shares.filter((s) => s.state === 'queued' || s.state === 'shared' || s.state === 'failed') ?? []
+    for (const s of held) await queueWithdraw(id, s.linkId)
     await trashEntry(id)
-    return () => restoreEntry(id)
+    if (held.length) void kickOutbox()
+    return { undo: () => restoreEntry(id), withdrew: held.length }
   }
 
   return { recent, recentLoaded, tags, count, create, update, share, withdraw, remove }

@@ -11,7 +11,7 @@ async function until(check: () => boolean) {
 
 describe('useEntriesStore', () => {
   beforeEach(async () => {
-    await Promise.all([db.entries.clear(), db.trash.clear()])
+    await Promise.all([db.entries.clear(), db.trash.clear(), db.outbox.clear()])
     setActivePinia(createPinia())
   })
 
@@ -27,11 +27,23 @@ describe('useEntriesStore', () => {
   it('deletes with an undo that brings the entry back', async () => {
     const store = useEntriesStore()
     const e = await store.create({ kind: 'moment', body: 'Undo me', wants: [], backgroundThoughts: [], tags: [] })
-    const undo = await store.remove(e.id)
+    const { undo, withdrew } = await store.remove(e.id)
+    expect(withdrew).toBe(0)
     await until(() => store.count === 0)
     expect(store.count).toBe(0)
     expect(await undo()).toBe(true)
     await until(() => store.count === 1)
     expect(store.recent[0]?.id).toBe(e.id)
+  })
+
+  it('withdraws a shared copy when the entry is deleted, so it is not left readable elsewhere', async () => {
+    const store = useEntriesStore()
+    const e = await store.create({ kind: 'moment', body: 'Shared then deleted', wants: [], backgroundThoughts: [], tags: [] })
+    await store.share(e.id, 'link-1')
+    const { withdrew } = await store.remove(e.id)
+    expect(withdrew).toBe(1)
+    const row = await db.outbox.get(`${e.id}:link-1`)
+    expect(row?.op).toBe('delete')
+    expect((await db.trash.get(e.id))?.entry.shares[0]?.state).toBe('withdrawing')
   })
 })
