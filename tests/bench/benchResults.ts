@@ -53,6 +53,31 @@ export interface BenchResults {
   storageBytes?: number
 }
 
+/** The outbox drain against the real server: figures from the page; the server-side checks are the runner's. */
+export interface OutboxResults {
+  count: number
+  linkId: string
+  entryIds: string[]
+  /** Outbox rows after queueing, before the drain. */
+  queued: number
+  createMs: number
+  queueMs: number
+  /** All drainOutbox calls until the outbox was empty. */
+  drainMs: number
+  drains: { sent: number; deferred: number; failed: number; paused: boolean; ms: number }[]
+  /** Outbox rows still there after the last drain. */
+  left: number
+  /** Entries whose share over the link reads 'shared' at the entry's version. */
+  sharedLocally: number
+  /** Share PUTs seen in the page's resource timing. */
+  requests: number
+  /** Each PUT from fetch start to the last byte of the response. */
+  roundTrip?: Spread
+  roundTripSumMs: number
+  /** From one PUT's response to the next PUT's start: the device's work per row between requests. */
+  between?: Spread
+}
+
 /** Nearest-rank percentile of already-collected samples. */
 export function percentile(samples: number[], p: number): number {
   const sorted = [...samples].sort((a, b) => a - b)

@@ -1,4 +1,5 @@
 // Storage speed in a real Chromium page: builds tests/bench/browser, serves it on loopback, runs it, prints figures.
+// Then the outbox drain: the real Rungs server serves the same build, so the page and the API share one origin.
 // It never asserts a timing; a figure over its budget is marked, and the run still exits 0.
 import fs from 'node:fs'
 import type { Server } from 'node:http'
@@ -9,13 +10,18 @@ import { fileURLToPath } from 'node:url'
 import express from 'express'
 import { build } from 'vite'
 import viteConfig from '../../vite.config'
+import { loadConfig } from '../../server/config/env'
+import { startServer, type Running } from '../../server/start'
 import { freshContext } from '../helpers/chromium'
-import type { BenchResults, Spread } from './benchResults'
+import { spread, type BenchResults, type OutboxResults, type Spread } from './benchResults'
 
 const SAVE_RATIO_BUDGET = 2
 const SEARCH_BUDGET_MS = 30
 // Well under the two-minute limit on two cores; a hung page must not hold the run open.
 const DEADLINE_MS = 110_000
+const OUTBOX_ITEMS = 1_000
+// The demo person (server/db/seed.ts), linked with the demo therapist.
+const PERSON = { email: 'robin.ashdown@example.org', password: 'demo-person-orchard' }
 
 const pageRoot = fileURLToPath(new URL('./browser', import.meta.url))
 
@@ -36,7 +42,12 @@ async function buildPage(outDir: string): Promise<void> {
     cacheDir: path.join(outDir, '..', 'viteCache'),
     // Only the aliases: the page imports plain TypeScript, and the PWA plugin would register a service worker.
     resolve: { alias: viteConfig.resolve?.alias },
-    build: { outDir, emptyOutDir: true, reportCompressedSize: false },
+    build: {
+      outDir,
+      emptyOutDir: true,
+      reportCompressedSize: false,
+      rollupOptions: { input: { index: path.join(pageRoot, 'index.html'), outbox: path.join(pageRoot, 'outbox.html') } },
+    },
   })
 }
 
@@ -53,10 +64,10 @@ function serve(dir: string): Promise<Server> {
   })
 }
 
-function withDeadline<T>(work: Promise<T>, what: string): Promise<T> {
+function withDeadline<T>(work: Promise<T>, what: string, deadlineMs = DEADLINE_MS): Promise<T> {
   let timer: NodeJS.Timeout | undefined
   const deadline = new Promise<never>((_resolve, reject) => {
-    timer = setTimeout(() => reject(new Error(`${what} did not finish within ${DEADLINE_MS / 1000} s`)), DEADLINE_MS)
+    timer = setTimeout(() => reject(new Error(`${what} did not finish within ${deadlineMs / 1000} s`)), deadlineMs)
   })
   return Promise.race([work, deadline]).finally(() => clearTimeout(timer))
 }
@@ -96,12 +107,110 @@ function report(r: BenchResults, buildMs: number): string {
   return lines.join('\n')
 }
 
+/** What the server's own request log said about each share PUT (handler time, from the request to the response's end). */
+function serverLog(): { log: (line: string) => void; putMs: number[]; other: string[] } {
+  const putMs: number[] = []
+  const other: string[] = []
+  const log = (line: string) => {
+    const m = /^PUT \/api\/links\/[^/]+\/shares\/\S+ (\d{3}) ([\d.]+)ms$/.exec(line)
+    if (m) putMs.push(Number(m[2]))
+    else if (!/^(GET|POST|PUT|DELETE) /.test(line)) other.push(line)
+  }
+  return { log, putMs, other }
+}
+
+interface OutboxCheck {
+  stored: number
+  duplicates: number
+  /** Ids the page created that the server does not hold. */
+  missing: number
+  /** Rows of the link whose entry the page did not create (the demo's own shares, say). */
+  others: number
+  /** Stored rows not at version 1 or withdrawn. */
+  wrong: number
+}
+
+/** Reads the server's database directly: one row per entry the page created, at version 1, and nothing twice. */
+async function checkShares(running: Running, r: OutboxResults): Promise<OutboxCheck> {
+  const rows = await running.deps.models.SharedEntry.findAll({ where: { linkId: r.linkId }, attributes: ['entryId', 'version', 'withdrawnAt'] })
+  const ours = new Set(r.entryIds)
+  const mine = rows.filter((row) => ours.has(row.entryId))
+  const distinct = new Set(mine.map((row) => row.entryId))
+  return {
+    stored: distinct.size,
+    duplicates: mine.length - distinct.size,
+    missing: ours.size - distinct.size,
+    others: rows.length - mine.length,
+    wrong: mine.filter((row) => row.version !== 1 || row.withdrawnAt !== null).length,
+  }
+}
+
+function outboxReport(r: OutboxResults, check: OutboxCheck, serverPutMs: number[]): string {
+  const sent = r.drains.reduce((n, d) => n + d.sent, 0)
+  const deferred = r.drains.reduce((n, d) => n + d.deferred, 0)
+  const failed = r.drains.reduce((n, d) => n + d.failed, 0)
+  const server = serverPutMs.length ? spread(serverPutMs) : undefined
+  const serverSum = serverPutMs.reduce((a, b) => a + b, 0)
+  const share = (part: number) => `${((100 * part) / r.drainMs).toFixed(0)} %`
+  const ok = check.stored === r.count && check.duplicates === 0 && check.missing === 0 && check.wrong === 0 && r.left === 0 && r.sharedLocally === r.count
+  const lines = [
+    `Outbox drain against the real Rungs server on loopback (demo person, ${group(r.count)} entries, one share each)`,
+    `  timer: not isolated (0.1 ms precision); the page is served by the Rungs server, which sets no COEP header`,
+    row(`Create ${group(r.count)} entries (createEntry, one by one)`, `${ms(r.createMs)} ms`),
+    row(`Queue ${group(r.count)} shares (queueShare, one by one; ${group(r.queued)} outbox rows)`, `${ms(r.queueMs)} ms`),
+    row(`Drain a ${group(r.count)}-item outbox (drainOutbox until empty: ${r.drains.length} call${r.drains.length === 1 ? '' : 's'})`, `${ms(r.drainMs)} ms`, `   ${group((1000 * sent) / r.drainMs)} items/s`),
+    row('  per item, drain time / items', `${ms(r.drainMs / Math.max(1, sent))} ms`),
+    ...(r.roundTrip ? [row(`  share PUT round trip in the page (median / p95 / max of ${group(r.requests)})`, trio(r.roundTrip), `   sum ${group(r.roundTripSumMs)} ms, ${share(r.roundTripSumMs)} of the drain`)] : []),
+    ...(server ? [row(`  of which the server's handler (median / p95 / max of ${group(serverPutMs.length)})`, trio(server), `   sum ${group(serverSum)} ms, ${share(serverSum)} of the drain`)] : []),
+    ...(r.between ? [row('  device work between one response and the next PUT (median / p95 / max)', trio(r.between), `   sum ${group(r.drainMs - r.roundTripSumMs)} ms, ${share(r.drainMs - r.roundTripSumMs)} of the drain`)] : []),
+    row('  drain reports (sent / deferred / failed; outbox rows left)', `${group(sent)} / ${deferred} / ${failed}; ${r.left} left`),
+    row(`Server database for the link`, `${group(check.stored)} stored, ${check.duplicates} duplicates`, check.others ? `   (+${check.others} rows not from this run)` : ''),
+    row(`Device: entries whose share reads 'shared' at their version`, `${group(r.sharedLocally)}`),
+    ...(ok
+      ? []
+      : [
+          `  MISMATCH: expected ${r.count} stored, 0 duplicates, 0 missing, all at version 1, ${r.count} shared on the device and an empty outbox;` +
+            ` got ${check.stored} stored, ${check.duplicates} duplicates, ${check.missing} missing, ${check.wrong} at another version or withdrawn,` +
+            ` ${r.sharedLocally} shared on the device, ${r.left} outbox rows left`,
+        ]),
+    '',
+  ]
+  return lines.join('\n')
+}
+
+async function benchOutbox(context: Awaited<ReturnType<typeof freshContext>>['context'], outDir: string, tmp: string, hold: (r: Running) => void): Promise<string> {
+  const { log, putMs } = serverLog()
+  const dataDir = path.join(tmp, 'serverData')
+  fs.mkdirSync(dataDir)
+  const env = { NODE_ENV: 'test', DATA_DIR: dataDir, PORT: '0', SCRYPT_COST: '1024', SEED_DEMO: 'true', SIGNIN_LIMIT: '1000', RESET_LIMIT: '1000' }
+  // The request log is on only to read each PUT's handler time; nothing of it is printed.
+  const running = await startServer(loadConfig(env, { clientDir: outDir, host: '127.0.0.1', logRequests: true }), log)
+  hold(running)
+  const origin = `http://127.0.0.1:${(running.server.address() as AddressInfo).port}`
+  const page = await context.newPage()
+  page.on('pageerror', (e) => console.error(`outbox page error: ${e.message}`))
+  page.on('console', (m) => m.type() === 'error' && console.error(`outbox page console: ${m.text()}`))
+  await page.goto(origin + '/outbox.html')
+  const results = await withDeadline(
+    page.evaluate(
+      ([email, password, count]) => (globalThis as unknown as { runOutboxBench(e: string, p: string, n: number): Promise<OutboxResults> }).runOutboxBench(email, password, count),
+      [PERSON.email, PERSON.password, OUTBOX_ITEMS] as const,
+    ),
+    'The outbox bench page',
+    180_000,
+  )
+  await page.close()
+  return outboxReport(results, await checkShares(running, results), putMs)
+}
+
 async function main(): Promise<void> {
   const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'rungsBench-'))
   let server: Server | undefined
+  let rungs: Running | undefined
   let browser: Awaited<ReturnType<typeof freshContext>> | undefined
   const cleanUp = async () => {
     await browser?.close().catch(() => undefined)
+    await rungs?.close().catch(() => undefined)
     server?.closeAllConnections()
     await new Promise((resolve) => (server ? server.close(resolve) : resolve(undefined)))
     fs.rmSync(tmp, { recursive: true, force: true })
@@ -119,7 +228,9 @@ async function main(): Promise<void> {
 
     browser = await freshContext({ width: 800, height: 600 })
     // Loopback only: anything else the page or browser asks for is refused.
-    await browser.context.route('**/*', (route) => (route.request().url().startsWith(origin + '/') ? route.continue() : route.abort()))
+    // The Rungs server's origin joins the list once it is listening.
+    const allowed = [origin + '/']
+    await browser.context.route('**/*', (route) => (allowed.some((o) => route.request().url().startsWith(o)) ? route.continue() : route.abort()))
     const page = await browser.context.newPage()
     page.on('pageerror', (e) => console.error(`page error: ${e.message}`))
     page.on('console', (m) => m.type() === 'error' && console.error(`page console: ${m.text()}`))
@@ -129,6 +240,12 @@ async function main(): Promise<void> {
       'The bench page',
     )
     console.log(report(results, buildMs))
+    console.log(
+      await benchOutbox(browser.context, outDir, tmp, (r) => {
+        rungs = r
+        allowed.push(`http://127.0.0.1:${(r.server.address() as AddressInfo).port}/`)
+      }),
+    )
   } finally {
     await cleanUp()
     process.off('SIGINT', onSignal)
