@@ -119,3 +119,17 @@ describe('GET /api/admin/accounts (admin only)', () => {
     expect(JSON.stringify(res.body)).not.toContain('scrypt')
   })
 })
+
+describe('PATCH /api/therapist/preferences', () => {
+  it('lets a therapist turn e-mail notices off, and refuses a person', async () => {
+    const therapist = await agentWithCsrf(t.app)
+    await therapist.signIn(demoAccounts.therapist.email, demoAccounts.therapist.password)
+    const res = await therapist.patch('/api/therapist/preferences', { emailNotices: false })
+    expect(res.status).toBe(200)
+    expect(res.body.user.emailNotices).toBe(false)
+    expect((await t.deps.models.User.findOne({ where: { email: demoAccounts.therapist.email } }))?.emailNotices).toBe(false)
+    const person = await agentWithCsrf(t.app)
+    await person.signIn(demoAccounts.person.email, demoAccounts.person.password)
+    expect((await person.patch('/api/therapist/preferences', { emailNotices: false })).status).toBe(403)
+  })
+})

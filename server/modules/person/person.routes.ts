@@ -4,7 +4,7 @@ import type { AppDeps } from '../../deps'
 import { requireRole } from '../../middleware/requireRole'
 import { validate } from '../../middleware/validate'
 import { presentMe } from '../me/presentMe'
-import { updatePreferences } from './person.service'
+import { updatePreferences } from '../me/preferences.service'
 
 export function personRoutes(deps: AppDeps) {
   const router = Router()

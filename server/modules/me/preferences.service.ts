@@ -1,7 +1,7 @@
 import type { Preferences } from '../../../shared/schemas/user.schema'
 import type { User } from '../../db/models/User'
 
-/** The person's own account choices: the name used in e-mails, and whether notices are sent at all. */
+/** An account's own choices: the name used in e-mails, and whether notices are sent at all. */
 export async function updatePreferences(user: User, prefs: Preferences): Promise<User> {
   return user.update(prefs)
 }
