@@ -68,15 +68,21 @@ describe('preview and confirm', () => {
       caution: notWatchedCaution,
     })
     expect(preview.body.preview.therapist.registration).toContain('FTR-20417')
-    // The preview stores nothing: no link, the code still unused.
-    expect(await t.deps.models.Link.count({ where: { personId: p.user.id } })).toBe(0)
+    // The preview records a pending link; the code stays unused until the person confirms.
+    const pending = await t.deps.models.Link.findAll({ where: { personId: p.user.id } })
+    expect(pending.map((l) => l.state)).toEqual(['pending'])
+    expect(pending[0]!.startedAt).toBeNull()
     expect((await t.deps.models.Invitation.findByPk(inv.invitation.id))!.usedAt).toBeNull()
+    // Nothing can be shared over a pending link.
+    expect((await put(person, pending[0]!.id, randomUUID(), 1, 'too early')).status).toBe(409)
 
     const res = await person.post('/api/person/links', { code: inv.code })
     expect(res.status).toBe(201)
     expect(res.body.link).toMatchObject({ state: 'active', endedAt: null, therapist: { displayName: demoAccounts.therapist.displayName } })
     const link = await t.deps.models.Link.findByPk(res.body.link.id)
     expect(link).toMatchObject({ personId: p.user.id, state: 'active', endedAt: null })
+    expect(link!.id).toBe(pending[0]!.id)
+    expect(await t.deps.models.Link.count({ where: { personId: p.user.id } })).toBe(1)
     expect(link!.startedAt).toBeInstanceOf(Date)
     expect((await t.deps.models.Invitation.findByPk(inv.invitation.id))!.usedAt).toBeInstanceOf(Date)
     expect(await t.deps.models.AuditEvent.count({ where: { action: 'link.started', subjectId: link!.id } })).toBe(1)

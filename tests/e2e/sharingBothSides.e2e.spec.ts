@@ -134,7 +134,8 @@ describe('sharing seen from both sides, in two Chromium profiles', () => {
       expect(await page.locator('[data-test=entry-body]').textContent()).toBe(firstEdited)
       expect(await page.locator('[data-test=entry-share]').textContent()).toContain('Waiting to send')
       await page.goto(`${origin}/journal/${secondId}`)
-      expect(await page.locator('[data-test=entry-share]').getByText('Waiting to send').isVisible()).toBe(true)
+      // The page loads the entry from IndexedDB after navigation: wait for it rather than look at once.
+      await page.locator('[data-test=entry-share]').getByText('Waiting to send').waitFor()
 
       // Back online, the outbox drains.
       await person.context.setOffline(false)

@@ -107,6 +107,8 @@ describe('the therapist reads what was shared, in Chromium', () => {
     expect(await page.locator('[data-test=prep-name]').textContent()).toBe(demoAccounts.person.displayName)
     expect(await page.locator('[data-test=prep-since]').textContent()).toMatch(/^Since the last session \(\w+day \d{1,2} \w+ \d{4}\)$/)
     const entries = page.locator('[data-test=prep-entry]')
+    // The shares load after the header; wait for them rather than count at once.
+    await entries.nth(1).waitFor()
     expect(await entries.count()).toBe(2)
     const tugCard = entries.filter({ hasText: 'Stay home and rest' })
     for (const text of ['Not be overwhelmed', 'Feel steady in myself', 'Show her I care', 'Feel close to my family', 'I always let people down']) {

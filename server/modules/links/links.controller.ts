@@ -11,7 +11,7 @@ export function linksController(deps: AppDeps) {
       res.json({ invitations: await links.listOpenInvitations(deps, req.user!.id) })
     }) satisfies RequestHandler,
     preview: (async (req, res) => {
-      res.json({ preview: await links.previewLink(deps, req.body.code) })
+      res.json({ preview: await links.previewLink(deps, req.user!, req.body.code) })
     }) satisfies RequestHandler,
     confirm: (async (req, res) => {
       res.status(201).json({ link: await links.confirmLink(deps, req.user!, req.body.code) })

@@ -76,10 +76,16 @@ async function therapistCard(deps: Deps, therapist: User) {
 }
 
 /**
- * Shows who a code belongs to before the person confirms. Nothing is stored: the preview is the link's "pending" look.
+ * Shows who a code belongs to before the person confirms, and records the link as pending: it exists, but nothing can
+ * be shared over it until the person confirms. The code stays unused until then.
  */
-export async function previewLink(deps: Deps, code: string): Promise<LinkPreview> {
+export async function previewLink(deps: Deps, person: User, code: string): Promise<LinkPreview> {
   const { invitation, therapist } = await openInvitation(deps, code)
+  const where = { personId: person.id, therapistId: therapist.id }
+  if (await deps.models.Link.findOne({ where: { ...where, state: 'active' } })) throw new HttpError(409, 'already_linked', 'You are already linked with this therapist.')
+  if (!(await deps.models.Link.findOne({ where: { ...where, state: 'pending' } }))) {
+    await deps.models.Link.create({ ...where, state: 'pending', startedAt: null, endedAt: null, endedBy: null })
+  }
   return { therapist: await therapistCard(deps, therapist), expiresAt: invitation.expiresAt.toISOString(), caution: notWatchedCaution }
 }
 
@@ -96,7 +102,11 @@ export async function confirmLink(deps: Deps, person: User, code: string): Promi
     // The conditional update lets only one of two racing confirmations use the code.
     const [used] = await deps.models.Invitation.update({ usedAt: now }, { where: { id: invitation.id, usedAt: null }, transaction })
     if (used !== 1) throw new HttpError(404, 'not_found', 'That code does not work. It may have expired or been used already; ask for a new one.')
-    const created = await deps.models.Link.create({ personId: person.id, therapistId: therapist.id, state: 'active', startedAt: now, endedAt: null, endedBy: null }, { transaction })
+    // The pending link from the preview becomes active; a confirmation without a preview creates it directly.
+    const pending = await deps.models.Link.findOne({ where: { personId: person.id, therapistId: therapist.id, state: 'pending' }, transaction })
+    const created = pending
+      ? await pending.update({ state: 'active', startedAt: now }, { transaction })
+      : await deps.models.Link.create({ personId: person.id, therapistId: therapist.id, state: 'active', startedAt: now, endedAt: null, endedBy: null }, { transaction })
     await deps.models.AuditEvent.create({ actorId: person.id, action: 'link.started', subjectUserId: person.id, subjectId: created.id }, { transaction })
     return created
   })
