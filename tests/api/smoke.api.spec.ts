@@ -21,3 +21,12 @@ describe('GET /api/me', () => {
     expect(JSON.stringify(res.body)).not.toContain('scrypt')
   })
 })
+
+describe('unknown API paths', () => {
+  it('answers JSON 404 naming the whole path, without the query string', async () => {
+    const a = await agentWithCsrf(t.app)
+    const res = await a.get('/api/nowhere/at-all?token=secret')
+    expect(res.status).toBe(404)
+    expect(res.body.error.message).toBe('There is no GET /api/nowhere/at-all.')
+  })
+})
