@@ -1,32 +1,12 @@
-import fs from 'node:fs'
-import { createRequire } from 'node:module'
-import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { demoAccounts } from '../../server/db/seed'
 import { freshContext } from '../helpers/chromium'
 import { signInThroughForm, startE2eServer } from '../helpers/e2eServer'
-
-const require = createRequire(import.meta.url)
-// Injected by evaluate: the strict CSP blocks addScriptTag.
-const axeSource = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8')
+import { seriousViolations } from '../helpers/axe'
 
 let server: Awaited<ReturnType<typeof startE2eServer>>
 beforeAll(async () => { server = await startE2eServer() })
 afterAll(async () => { await server?.close() })
-
-interface Violation { id: string; impact: string; help: string; nodes: { target: string[] }[] }
-
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(axeSource)
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: Violation[] }> } }).axe
-    const r = await axe.run(document, { resultTypes: ['violations'] })
-    return r.violations
-  })
-  return violations
-    .filter((v: Violation) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v: Violation) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
-}
 
 const personScreens = ['/', '/journal', '/patterns', '/tug', '/grounding', '/more', '/more/settings', '/more/backup', '/signin', '/signup', '/forgot', '/no-such-page']
 

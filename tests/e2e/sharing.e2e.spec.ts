@@ -1,54 +1,14 @@
-import fs from 'node:fs'
-import { createRequire } from 'node:module'
-import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { demoAccounts } from '../../server/db/seed'
 import { freshContext } from '../helpers/chromium'
 import { signInThroughForm, startE2eServer } from '../helpers/e2eServer'
 import { saveMoment } from '../helpers/journalFlows'
-
-const require = createRequire(import.meta.url)
-// Injected by evaluate: the strict CSP blocks addScriptTag.
-const axeSource = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8')
-
-interface Violation { id: string; impact: string; help: string; nodes: { target: string[] }[] }
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(axeSource)
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: Violation[] }> } }).axe
-    return (await axe.run(document, { resultTypes: ['violations'] })).violations
-  })
-  return violations
-    .filter((v: Violation) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v: Violation) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
-}
+import { seriousViolations } from '../helpers/axe'
+import { signInOverFetch } from '../helpers/apiSession'
 
 let server: Awaited<ReturnType<typeof startE2eServer>>
 beforeAll(async () => { server = await startE2eServer() })
 afterAll(async () => { await server?.close() })
-
-/** The therapist's side over plain fetch with a small cookie jar. */
-async function signInAsTherapist(base: string) {
-  const jar = new Map<string, string>()
-  let csrf = ''
-  const call = async (method: string, path: string, body?: unknown) => {
-    const headers: Record<string, string> = { accept: 'application/json', cookie: [...jar].map(([k, v]) => `${k}=${v}`).join('; ') }
-    if (body !== undefined) headers['content-type'] = 'application/json'
-    if (method !== 'GET') headers['x-csrf-token'] = csrf
-    const res = await fetch(base + path, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) })
-    for (const c of res.headers.getSetCookie()) {
-      const [pair] = c.split(';')
-      const at = pair!.indexOf('=')
-      jar.set(pair!.slice(0, at), pair!.slice(at + 1))
-    }
-    return { status: res.status, body: (await res.json()) as Record<string, unknown> }
-  }
-  csrf = String((await call('GET', '/api/auth/csrf')).body.csrfToken)
-  const signedIn = await call('POST', '/api/auth/signin', { email: demoAccounts.therapist.email, password: demoAccounts.therapist.password })
-  expect(signedIn.status).toBe(200)
-  csrf = String(signedIn.body.csrfToken)
-  return call
-}
 
 describe('sharing an entry with a linked therapist in Chromium', () => {
   it('waits to send while offline, sends when back online, shows who opened it, and withdraws', async () => {
@@ -86,7 +46,7 @@ describe('sharing an entry with a linked therapist in Chromium', () => {
     await context.setOffline(false)
     await page.locator('[data-test=share-state-shared]').waitFor({ timeout: 15_000 })
 
-    const therapist = await signInAsTherapist(server.url)
+    const therapist = await signInOverFetch(server.url, demoAccounts.therapist)
     const links = (await therapist('GET', '/api/therapist/links')).body.links as { id: string; state: string; person: { displayName: string } }[]
     const link = links.find((l) => l.person.displayName === demoAccounts.person.displayName && l.state === 'active')!
     expect(link).toBeDefined()
@@ -129,7 +89,7 @@ describe('sharing an entry with a linked therapist in Chromium', () => {
     await page.locator('[data-test=share-confirm]').click()
     await page.locator('[data-test=share-state-shared]').waitFor({ timeout: 15_000 })
 
-    const therapist = await signInAsTherapist(server.url)
+    const therapist = await signInOverFetch(server.url, demoAccounts.therapist)
     const links = (await therapist('GET', '/api/therapist/links')).body.links as { id: string; state: string }[]
     const link = links.find((l) => l.state === 'active')!
     const shared = (await therapist('GET', `/api/therapist/links/${link.id}/shares`)).body.shares as { entryId: string; riskFlag: boolean }[]
@@ -150,7 +110,7 @@ describe('sharing an entry with a linked therapist in Chromium', () => {
     await card.locator('[data-test=link-state]').filter({ hasText: 'Ended' }).waitFor()
     expect(await card.locator('[data-test=link-end]').count()).toBe(0)
 
-    const therapist = await signInAsTherapist(server.url)
+    const therapist = await signInOverFetch(server.url, demoAccounts.therapist)
     const links = (await therapist('GET', '/api/therapist/links')).body.links as { id: string; state: string }[]
     expect(links.every((l) => l.state === 'ended')).toBe(true)
     const shared = await therapist('GET', `/api/therapist/links/${links[0]!.id}/shares`)

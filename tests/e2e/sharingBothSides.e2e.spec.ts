@@ -1,27 +1,11 @@
 import fs from 'node:fs'
-import { createRequire } from 'node:module'
 import type { BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { demoAccounts } from '../../server/db/seed'
 import { freshContext } from '../helpers/chromium'
 import { signInThroughForm, startE2eServer } from '../helpers/e2eServer'
 import { saveMoment } from '../helpers/journalFlows'
-
-const require = createRequire(import.meta.url)
-// Injected by evaluate: the strict CSP blocks addScriptTag.
-const axeSource = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8')
-
-interface Violation { id: string; impact: string; help: string; nodes: { target: string[] }[] }
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(axeSource)
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: Violation[] }> } }).axe
-    return (await axe.run(document, { resultTypes: ['violations'] })).violations
-  })
-  return violations
-    .filter((v: Violation) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v: Violation) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
-}
+import { seriousViolations } from '../helpers/axe'
 
 /** Every http(s) request a context makes, the service worker's included. */
 function recordUrls(context: BrowserContext): string[] {

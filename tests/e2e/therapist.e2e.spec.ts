@@ -1,51 +1,12 @@
 import { randomUUID } from 'node:crypto'
 import fs from 'node:fs'
-import { createRequire } from 'node:module'
-import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Entry } from '../../shared/schemas/entry.schema'
 import { demoAccounts } from '../../server/db/seed'
 import { freshContext } from '../helpers/chromium'
 import { signInThroughForm, startE2eServer } from '../helpers/e2eServer'
-
-const require = createRequire(import.meta.url)
-// Injected by evaluate: the strict CSP blocks addScriptTag.
-const axeSource = fs.readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8')
-
-interface Violation { id: string; impact: string; help: string; nodes: { target: string[] }[] }
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(axeSource)
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: Violation[] }> } }).axe
-    return (await axe.run(document, { resultTypes: ['violations'] })).violations
-  })
-  return violations
-    .filter((v: Violation) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v: Violation) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
-}
-
-/** The person's side, over plain fetch with a small cookie jar, the way the device's outbox would share. */
-async function signInAsPerson(base: string) {
-  const jar = new Map<string, string>()
-  let csrf = ''
-  const call = async (method: string, path: string, body?: unknown) => {
-    const headers: Record<string, string> = { accept: 'application/json', cookie: [...jar].map(([k, v]) => `${k}=${v}`).join('; ') }
-    if (body !== undefined) headers['content-type'] = 'application/json'
-    if (method !== 'GET') headers['x-csrf-token'] = csrf
-    const res = await fetch(base + path, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) })
-    for (const c of res.headers.getSetCookie()) {
-      const [pair] = c.split(';')
-      const at = pair!.indexOf('=')
-      jar.set(pair!.slice(0, at), pair!.slice(at + 1))
-    }
-    return { status: res.status, body: (await res.json()) as Record<string, unknown> }
-  }
-  csrf = String((await call('GET', '/api/auth/csrf')).body.csrfToken)
-  const signedIn = await call('POST', '/api/auth/signin', { email: demoAccounts.person.email, password: demoAccounts.person.password })
-  expect(signedIn.status).toBe(200)
-  csrf = String(signedIn.body.csrfToken)
-  return call
-}
+import { seriousViolations } from '../helpers/axe'
+import { signInOverFetch, type ApiCall } from '../helpers/apiSession'
 
 const now = Date.now()
 const tug: Entry = {
@@ -71,11 +32,11 @@ const moment: Entry = { id: randomUUID(), kind: 'moment', createdAt: now - 30 * 
 const noteText = 'Ask about the party and about the thoughts of ending things; check the safety plan.'
 
 let server: Awaited<ReturnType<typeof startE2eServer>>
-let person: Awaited<ReturnType<typeof signInAsPerson>>
+let person: ApiCall
 let linkId = ''
 beforeAll(async () => {
   server = await startE2eServer()
-  person = await signInAsPerson(server.url)
+  person = await signInOverFetch(server.url, demoAccounts.person)
   const links = (await person('GET', '/api/person/links')).body.links as { id: string; state: string }[]
   linkId = links.find((l) => l.state === 'active')!.id
   for (const entry of [tug, moment]) {
