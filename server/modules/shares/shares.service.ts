@@ -5,7 +5,7 @@ import type { AppDeps } from '../../deps'
 import { HttpError } from '../../middleware/HttpError'
 import { clock, linkOfPerson } from '../links/linkAccess'
 import { maybeSendShareDigest } from './digest.service'
-import { entryHasRiskLanguage } from './riskFlag'
+import { entryHasRiskLanguage } from '../../../shared/content/entryHasRiskLanguage'
 
 type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'mailer' | 'log' | 'config' | 'now'>
 
