@@ -1,4 +1,6 @@
 import { z } from 'zod'
+import { measureBodySchema } from './measure.schema'
+import { safetyPlanSchema } from './safetyPlan.schema'
 
 export const entryKindSchema = z.enum(['moment', 'tug', 'measure', 'safetyPlan'])
 export type EntryKind = z.infer<typeof entryKindSchema>
@@ -48,6 +50,10 @@ export const entrySchema = z.object({
   backgroundThoughts: z.array(z.string().max(2000)).max(50),
   tags: z.array(tagSchema).max(30),
   shares: z.array(entryShareSchema),
+  /** Only on kind 'measure': the questionnaire answers. */
+  measure: measureBodySchema.optional(),
+  /** Only on kind 'safetyPlan'. */
+  safetyPlan: safetyPlanSchema.optional(),
 })
 export type Entry = z.infer<typeof entrySchema>
 
