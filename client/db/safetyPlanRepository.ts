@@ -1,0 +1,10 @@
+import type { Entry } from '@shared/schemas/entry.schema'
+import { db } from './db'
+import { fromStored } from './entriesRepository'
+
+/** The person's safety plan: at most one entry of kind 'safetyPlan' (the most recently edited, should a restore bring two). */
+export async function getSafetyPlanEntry(): Promise<Entry | undefined> {
+  const rows = await db.entries.where('kind').equals('safetyPlan').toArray()
+  const latest = rows.sort((a, b) => b.updatedAt - a.updatedAt)[0]
+  return latest && fromStored(latest)
+}
