@@ -27,7 +27,7 @@ export const safetyPlanSteps: readonly { key: SafetyPlanSectionKey; title: strin
   {
     key: 'askForHelp',
     title: 'People I can ask for help',
-    prompt: 'People you trust enough to tell that you are struggling. A phone number means you can call them from here in one tap.',
+    prompt: 'People you trust enough to tell that you are struggling. Add a phone number and you can call them from here in one tap.',
   },
   {
     key: 'professionals',
