@@ -37,8 +37,8 @@ function problemText(issue: PlanIssue): string {
   const title = safetyPlanSteps.find((s) => s.key === key)?.title ?? 'Your plan'
   const where = typeof index === 'number' ? `${title}, ${typeof field === 'string' ? `contact ${index + 1}` : `line ${index + 1}`}` : title
   if (issue.code === 'too_big' && issue.origin === 'array') return `${title}: at most ${String(issue.maximum)} here. Please remove some.`
-  if (issue.code === 'too_big' && typeof field === 'string') return `${where}: keep the ${fieldWords[field] ?? field} under ${String(issue.maximum)} characters.`
-  if (issue.code === 'too_big' && key === 'reasonToKeepGoing') return `${where}: keep it under ${String(issue.maximum)} characters.`
+  if (issue.code === 'too_big' && typeof field === 'string') return `${where}: the ${fieldWords[field] ?? field} can be at most ${String(issue.maximum)} characters.`
+  if (issue.code === 'too_big' && key === 'reasonToKeepGoing') return `${where}: this can be at most ${String(issue.maximum)} characters.`
   if (issue.code === 'too_big') return `${where}: ${issue.message}`
   return `${where}: please check this.`
 }
