@@ -8,6 +8,9 @@ import { gad7Form, phq9Form } from '@shared/content/measureForms'
 import { db } from '@/db/db'
 import { routes } from '@/router/routes'
 
+// Lazy pages load slowly on a busy machine; waits are generous, never asserted.
+const WAIT = { timeout: 8000 }
+
 async function settle(ms = 30) {
   await flushPromises()
   await new Promise((r) => setTimeout(r, ms))
@@ -98,8 +101,8 @@ describe('the questionnaire form', () => {
     expect(wrapper.get('[data-test=measure-question]').text()).toContain('how difficult have these problems made it for you')
     await click(wrapper, 'measure-choice-1')
     await click(wrapper, 'measure-finish')
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('measureEntry'))
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true))
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('measureEntry'), WAIT)
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true), WAIT)
     const html = wrapper.html()
     expect(html.indexOf('data-test="measure-selfharm-card"')).toBeGreaterThan(-1)
     expect(html.indexOf('data-test="measure-selfharm-card"')).toBeLessThan(html.indexOf('data-test="measure-score"'))
@@ -115,7 +118,7 @@ describe('the questionnaire form', () => {
     const { wrapper } = await mountAt('/measures/new/phq9')
     await answerAll(wrapper, [0, 0, 0, 0, 0, 0, 0, 0, null])
     await click(wrapper, 'measure-finish')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true), WAIT)
     expect(wrapper.get('[data-test=measure-incomplete]').text()).toContain('Not scored')
     expect(wrapper.get('[data-test=measure-incomplete]').text()).toContain('question 9, which is never guessed')
     expect(wrapper.find('[data-test=measure-total]').exists()).toBe(false)
@@ -129,7 +132,7 @@ describe('the questionnaire form', () => {
     const { wrapper } = await mountAt('/measures/new/phq9')
     await answerAll(wrapper, [2, null, 2, 2, 1, 1, 2, 0, 0])
     await click(wrapper, 'measure-skip') // difficulty skipped: finishes
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true), WAIT)
     // Arrieta et al. 2017 rule: 10 from the 8 answered items, the skipped one filled with their mean (10/8) -> 11.25 -> 11
     expect(wrapper.get('[data-test=measure-total]').text()).toBe('11')
     expect(wrapper.get('[data-test=measure-prorated]').text()).toContain('Estimated from the answered questions')
@@ -141,7 +144,7 @@ describe('the questionnaire form', () => {
     expect(wrapper.get('[data-test=measure-question]').text()).toBe(gad7Form.items[0]!.text)
     await answerAll(wrapper, [1, 1, null, 1, 0, 1, 2])
     await click(wrapper, 'measure-finish')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-score]').exists()).toBe(true), WAIT)
     expect(wrapper.get('[data-test=measure-incomplete]').text()).toBe('Not scored: 1 question was skipped. A GAD-7 needs every question answered.')
     expect(wrapper.find('[data-test=measure-selfharm-card]').exists()).toBe(false)
     wrapper.unmount()
@@ -158,7 +161,7 @@ describe('the questionnaire form', () => {
     expect(again.wrapper.get('[data-test=measure-question]').text()).toBe(gad7Form.items[2]!.text)
     await answerAll(again.wrapper, [1, 1, 0, 1, 2])
     await click(again.wrapper, 'measure-finish')
-    await vi.waitFor(() => expect(again.router.currentRoute.value.name).toBe('measureEntry'))
+    await vi.waitFor(() => expect(again.router.currentRoute.value.name).toBe('measureEntry'), WAIT)
     expect(await db.entries.count()).toBe(1)
     expect((await db.entries.get(saved!.id))?.measure?.answers).toEqual([1, 2, 1, 1, 0, 1, 2])
     again.wrapper.unmount()

@@ -35,6 +35,9 @@ async function seedMeasure(instrument: 'phq9' | 'gad7', answers: ItemAnswer[], d
 const phq8 = [1, 1, 1, 1, 1, 1, 1, 1, 0] as ItemAnswer[]
 const phq15 = [2, 2, 2, 2, 2, 2, 2, 1, 0] as ItemAnswer[]
 
+// Lazy pages load slowly on a busy machine; waits are generous, never asserted.
+const WAIT = { timeout: 8000 }
+
 async function mountAt(path: string) {
   const pinia = createPinia()
   setActivePinia(pinia)
@@ -71,7 +74,7 @@ describe('the Measures page', () => {
     await seedMeasure('phq9', phq8, 40)
     await seedMeasure('phq9', phq15, 2)
     const { wrapper } = await mountAt('/measures')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-worsening]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-worsening]').exists()).toBe(true), WAIT)
     const card = wrapper.get('[data-test=measure-worsening]')
     expect(card.text()).toContain('talk to your therapist')
     expect(card.text()).toContain('You deserve support')
@@ -89,7 +92,7 @@ describe('the Measures page', () => {
     await seedMeasure('phq9', phq8, 40)
     await seedMeasure('phq9', [1, 1, 1, 1, 1, 1, 2, 2, 0], 2)
     const { wrapper } = await mountAt('/measures')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-change-phq9]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-change-phq9]').exists()).toBe(true), WAIT)
     expect(wrapper.get('[data-test=measure-change-phq9]').text()).toBe('2 points higher than your first.')
     expect(wrapper.find('[data-test=measure-worsening]').exists()).toBe(false)
     wrapper.unmount()
@@ -101,7 +104,7 @@ describe('the Measures page', () => {
     await db.links.put({ ...link, syncedAt: NOW })
     await seedMeasure('gad7', [1, 1, 1, 1, 1, 1, 1], 3)
     const { wrapper } = await mountAt('/measures')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-history-gad7]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-history-gad7]').exists()).toBe(true), WAIT)
     expect(fetch).not.toHaveBeenCalled()
     wrapper.unmount()
   })
@@ -119,7 +122,7 @@ describe('the Measures page', () => {
     await db.links.put({ ...link, syncedAt: NOW })
     await seedMeasure('phq9', phq15, 2)
     const { wrapper } = await mountAt('/measures')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-row-therapist]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-row-therapist]').exists()).toBe(true), WAIT)
     expect(fetch.mock.calls.map((c) => c[0])).toEqual(['/api/me', '/api/links/link-1/earlier-scores'])
     expect(await db.earlierScores.toArray()).toMatchObject([{ id: 'es-1', linkId: 'link-1', total: 22, item9: null }])
     expect(wrapper.get('[data-test=measure-row-therapist]').text()).toContain('entered by your therapist')
@@ -137,7 +140,7 @@ describe('the Measures page', () => {
     await writeSetting('signedInBefore', true)
     await db.links.put({ ...link, syncedAt: NOW })
     const { wrapper } = await mountAt('/measures')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-history-gad7]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-history-gad7]').exists()).toBe(true), WAIT)
     expect((await db.earlierScores.toArray()).map((s) => s.id)).toEqual(['es-old'])
     wrapper.unmount()
   })
@@ -147,7 +150,7 @@ describe('the Measures page', () => {
     const at = NOW - DAY
     await db.entries.put({ id: crypto.randomUUID(), kind: 'measure', createdAt: at, updatedAt: at, version: 1, body: '', wants: [], backgroundThoughts: [], tags: [], shares: [], words: [], measure: { instrument: 'gad7', answers: [1, 2, null, null, null, null, null] } })
     const { wrapper } = await mountAt('/measures')
-    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-unfinished-row]').exists()).toBe(true))
+    await vi.waitFor(() => expect(wrapper.find('[data-test=measure-unfinished-row]').exists()).toBe(true), WAIT)
     expect(wrapper.get('[data-test=measure-unfinished-row]').text()).toContain('2 of 7 answered')
     expect(wrapper.get('[data-test=measure-resume]').attributes('href')).toMatch(/^\/measures\/new\/gad7\?entry=/)
     expect(wrapper.find('[data-test=measure-history-gad7]').exists()).toBe(false)
