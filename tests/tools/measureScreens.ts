@@ -73,6 +73,8 @@ for (const [size, w, h] of [['phone', 390, 844], ['desktop', 1280, 800]] as cons
   await page.waitForTimeout(800)
   await page.screenshot({ path: `${out}/${size}-measures.png` })
   await page.screenshot({ path: `${out}/${size}-measures-full.png`, fullPage: true })
+  await page.locator('[data-test=measure-history-phq9]').scrollIntoViewIfNeeded()
+  await page.screenshot({ path: `${out}/${size}-measures-chart.png` })
   await close()
 }
 console.log(`screenshots in ${out}/`)
