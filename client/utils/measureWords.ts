@@ -35,6 +35,10 @@ export function outcomeSentences(report: LinkMeasures): string[] {
   }
   const o = report.outcome
   if (!o) return out
+  for (const m of ['phq9', 'gad7'] as const) {
+    if (!o.measures.includes(m) && scoredSeries(report.results, m).length === 1)
+      out.push(`The ${measureName[m]} has one score so far, so the course is judged on the ${measureName[o.measures[0]!]} alone.`)
+  }
   if (!o.casenessAtStart) out.push(`Not at caseness at the first scores, so recovery does not apply.`)
   else if (o.reliableRecovery) out.push(`Reliable recovery: at caseness at the start, below caseness on ${both(o.measures)} now, with reliable improvement.`)
   else if (o.recovery) out.push(`Recovery: at caseness at the start and below caseness on ${both(o.measures)} now, without reliable improvement.`)
