@@ -90,8 +90,8 @@ describe('the therapist reads measures and adds earlier scores, in Chromium', ()
     await close()
   })
 
-  it('lays the Measures section and the caseload out on a phone', async () => {
-    const { context, close } = await freshContext({ width: 390, height: 844 })
+  it('lays the Measures section and the caseload out on a phone, in dark mode', async () => {
+    const { context, close } = await freshContext({ width: 390, height: 844, colorScheme: 'dark' })
     const page = await context.newPage()
     await signInThroughForm(page, server.url, demoAccounts.therapist.email, demoAccounts.therapist.password)
     const card = page.locator('[data-test=caseload-card]').filter({ hasText: demoAccounts.person.displayName })
@@ -101,6 +101,7 @@ describe('the therapist reads measures and adds earlier scores, in Chromium', ()
     await card.click()
     const section = page.locator('[data-test=prep-measures]')
     await section.locator('canvas').first().waitFor()
+    expect(await page.evaluate(() => document.body.classList.contains('body--dark'))).toBe(true)
     const width = await page.evaluate(() => document.documentElement.scrollWidth)
     expect(width).toBeLessThanOrEqual(390)
     expect(await seriousViolations(page)).toEqual([])
