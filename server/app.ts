@@ -12,6 +12,7 @@ import { adminRoutes } from './modules/admin/admin.routes'
 import { authRoutes } from './modules/auth/auth.routes'
 import { linksRoutes } from './modules/links/links.routes'
 import { sentMailRoutes } from './modules/mail/mail.routes'
+import { measuresRoutes } from './modules/measures/measures.routes'
 import { meRoutes } from './modules/me/me.routes'
 import { personRoutes } from './modules/person/person.routes'
 import { prepRoutes } from './modules/prep/prep.routes'
@@ -89,6 +90,7 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
   api.use(linksRoutes(deps))
   api.use(sharesRoutes(deps))
   api.use(prepRoutes(deps))
+  api.use(measuresRoutes(deps))
   if (deps.fakeSmtp && config.env !== 'production') api.use('/admin/mail', sentMailRoutes(deps.fakeSmtp))
   api.use(notFound)
   app.use('/api', api)

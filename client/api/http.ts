@@ -39,11 +39,13 @@ async function ensureCsrf(): Promise<string> {
  */
 export async function request<T>(method: string, url: string, body?: unknown, schema?: ZodType<T>, retryCsrf = true): Promise<T> {
   const headers: Record<string, string> = { accept: 'application/json' }
-  if (body !== undefined) headers['content-type'] = 'application/json'
+  // FormData (a file upload) sets its own multipart content type and boundary.
+  const isForm = typeof FormData !== 'undefined' && body instanceof FormData
+  if (body !== undefined && !isForm) headers['content-type'] = 'application/json'
   if (method !== 'GET' && method !== 'HEAD') headers['x-csrf-token'] = await ensureCsrf()
   let res: Response
   try {
-    res = await fetch(url, { method, headers, credentials: 'same-origin', body: body === undefined ? undefined : JSON.stringify(body) })
+    res = await fetch(url, { method, headers, credentials: 'same-origin', body: body === undefined ? undefined : isForm ? body : JSON.stringify(body) })
   } catch {
     throw new ApiError(0, 'offline', 'Rungs could not reach the server. Check your connection; nothing you typed is lost.')
   }
@@ -61,4 +63,33 @@ export async function request<T>(method: string, url: string, body?: unknown, sc
     throw err
   }
   return schema ? schema.parse(data) : (data as T)
+}
+
+/**
+ * Fetches a file the server offers as a download (CSV, FHIR JSON) and saves it under the server's file name. Errors
+ * come back in the one JSON shape, so they are raised as ApiError like any other call.
+ */
+export async function download(url: string, fallbackName: string): Promise<void> {
+  let res: Response
+  try {
+    res = await fetch(url, { credentials: 'same-origin' })
+  } catch {
+    throw new ApiError(0, 'offline', 'Rungs could not reach the server. Check your connection and try again.')
+  }
+  if (!res.ok) {
+    const parsed = apiErrorSchema.safeParse(await res.json().catch(() => undefined))
+    if (res.status === 401) onUnauthenticated?.()
+    throw parsed.success
+      ? new ApiError(res.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details)
+      : new ApiError(res.status, 'unexpected', 'The server answered in a way Rungs did not expect. Please try again.')
+  }
+  const name = /filename="?([^";]+)"?/.exec(res.headers.get('content-disposition') ?? '')?.[1] ?? fallbackName
+  const href = URL.createObjectURL(await res.blob())
+  const a = document.createElement('a')
+  a.href = href
+  a.download = name
+  document.body.appendChild(a)
+  a.click()
+  a.remove()
+  setTimeout(() => URL.revokeObjectURL(href), 1000)
 }

@@ -1,6 +1,7 @@
 import type { Sequelize } from 'sequelize'
 import { Appointment } from './models/Appointment'
 import { AuditEvent } from './models/AuditEvent'
+import { EarlierScore } from './models/EarlierScore'
 import { EmailToken } from './models/EmailToken'
 import { Invitation } from './models/Invitation'
 import { Link } from './models/Link'
@@ -22,6 +23,7 @@ export function initModels(sequelize: Sequelize) {
   Appointment.initModel(sequelize)
   SharedEntry.initModel(sequelize)
   PrepNote.initModel(sequelize)
+  EarlierScore.initModel(sequelize)
 
   User.hasOne(TherapistProfile, { foreignKey: { name: 'userId', allowNull: false }, as: 'therapistProfile', onDelete: 'CASCADE' })
   TherapistProfile.belongsTo(User, { foreignKey: 'userId', as: 'user' })
@@ -38,7 +40,10 @@ export function initModels(sequelize: Sequelize) {
   SharedEntry.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
   Link.hasMany(PrepNote, { foreignKey: 'linkId', as: 'prepNotes', onDelete: 'CASCADE' })
   PrepNote.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
+  Link.hasMany(EarlierScore, { foreignKey: 'linkId', as: 'earlierScores', onDelete: 'CASCADE' })
+  EarlierScore.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
+  EarlierScore.belongsTo(User, { foreignKey: 'enteredById', as: 'enteredBy' })
 
-  return { User, TherapistProfile, EmailToken, AuditEvent, Session, Invitation, Link, Appointment, SharedEntry, PrepNote }
+  return { User, TherapistProfile, EmailToken, AuditEvent, Session, Invitation, Link, Appointment, SharedEntry, PrepNote, EarlierScore }
 }
 export type Models = ReturnType<typeof initModels>

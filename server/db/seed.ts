@@ -49,5 +49,11 @@ export async function seedDemoIfEmpty(models: Models, scryptCost: number): Promi
     { linkId: link.id, at: new Date(now - 7 * day) },
     { linkId: link.id, at: new Date(now + 7 * day) },
   ])
+  // Two invented intake scores from before the link, entered by Amara, so change is counted from Robin's true first score.
+  const intake = new Date(now - 35 * day).toISOString().slice(0, 10)
+  await models.EarlierScore.bulkCreate([
+    { linkId: link.id, instrument: 'phq9', takenOn: intake, total: 14, item9: 0, enteredById: therapist.id },
+    { linkId: link.id, instrument: 'gad7', takenOn: intake, total: 11, item9: null, enteredById: therapist.id },
+  ])
   return true
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { measureSummarySchema } from './measure.schema'
 
 export const caseloadRowSchema = z.object({
   linkId: z.string(),
@@ -10,6 +11,8 @@ export const caseloadRowSchema = z.object({
   toDiscussCount: z.number(),
   nextAppointment: z.string().nullable(),
   riskFlag: z.boolean(),
+  /** Latest score, band and change since the first, per measure (shared questionnaires and earlier scores). */
+  measures: z.object({ phq9: measureSummarySchema.nullable(), gad7: measureSummarySchema.nullable() }),
 })
 export type CaseloadRow = z.infer<typeof caseloadRowSchema>
 

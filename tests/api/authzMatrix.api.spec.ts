@@ -8,7 +8,7 @@ let t: TestApp
 const SECRET = 'cobalt-orchard-whisper'
 const NOTE_SECRET = 'note-about-the-tidewater'
 const OWNER_NAME = 'Zephyrine'
-const ids = { link: '', entry: '', note: '', otherLink: '', otherClientLink: '' }
+const ids = { link: '', entry: '', note: '', earlier: '', otherLink: '', otherClientLink: '' }
 const actors: Record<string, Agent> = {}
 
 beforeAll(async () => {
@@ -22,6 +22,12 @@ beforeAll(async () => {
   expect((await put(actors.owner, ids.link, ids.entry, 2, SECRET)).status).toBe(200)
   ids.note = (await actors.ownerTherapist.post(`/api/therapist/links/${ids.link}/notes`, { text: NOTE_SECRET })).body.note.id
   await actors.ownerTherapist.post(`/api/therapist/links/${ids.link}/appointments`, { at: new Date(Date.now() + 86_400_000).toISOString() })
+  const earlier = await actors.ownerTherapist.agent
+    .post(`/api/therapist/links/${ids.link}/earlier-scores`)
+    .set('x-csrf-token', actors.ownerTherapist.token)
+    .attach('file', Buffer.from('date,measure,total\n2026-08-03,PHQ-9,17\n'), { filename: 'earlier.csv', contentType: 'text/csv' })
+  expect(earlier.status).toBe(201)
+  ids.earlier = earlier.body.scores[0].id
 
   // Another person with their own therapist, so IDOR attempts can use real ids of their own.
   actors.otherTherapist = await signedInAs(t, await makeTherapist(t, 'Basil Fenn'))
@@ -60,6 +66,13 @@ const routes: RouteCase[] = [
   { name: 'export notes', method: 'get', url: () => `/api/therapist/links/${L()}/notes/export` },
   { name: 'access log', method: 'get', url: () => `/api/person/links/${L()}/access-log` },
   { name: 'share states', method: 'get', url: () => `/api/person/links/${L()}/shares` },
+  { name: 'link measures', method: 'get', url: () => `/api/therapist/links/${L()}/measures` },
+  { name: 'measures CSV', method: 'get', url: () => `/api/therapist/links/${L()}/measures.csv` },
+  { name: 'measures FHIR', method: 'get', url: () => `/api/therapist/links/${L()}/measures/fhir` },
+  { name: 'upload earlier scores', method: 'post', url: () => `/api/therapist/links/${L()}/earlier-scores`, body: () => ({}) },
+  { name: 'list earlier scores', method: 'get', url: () => `/api/therapist/links/${L()}/earlier-scores` },
+  { name: 'delete earlier score', method: 'delete', url: () => `/api/therapist/links/${L()}/earlier-scores/${ids.earlier}` },
+  { name: 'person earlier scores', method: 'get', url: () => `/api/links/${L()}/earlier-scores` },
 ]
 
 function call(a: Agent, r: RouteCase) {
@@ -68,7 +81,10 @@ function call(a: Agent, r: RouteCase) {
 }
 
 const isTherapistRoute = (r: RouteCase) => r.url().startsWith('/api/therapist/')
-const isPersonRoute = (r: RouteCase) => r.url().startsWith('/api/person/') || (r.url().includes('/shares/') && (r.method === 'put' || r.method === 'delete'))
+const isPersonRoute = (r: RouteCase) =>
+  r.url().startsWith('/api/person/') ||
+  (r.url().includes('/shares/') && (r.method === 'put' || r.method === 'delete')) ||
+  (r.url().startsWith('/api/links/') && r.url().endsWith('/earlier-scores'))
 
 /** What each outsider must get: 401 signed out, 403 for the wrong role, 404 for the right role on someone else's id. */
 function expected(actor: string, r: RouteCase): number[] {
@@ -96,6 +112,8 @@ async function ownerStateUnchanged() {
   expect(note!.text).toBe(NOTE_SECRET)
   expect(await t.deps.models.PrepNote.count({ where: { linkId: ids.link } })).toBe(1)
   expect(await t.deps.models.Appointment.count({ where: { linkId: ids.link } })).toBe(1)
+  expect(await t.deps.models.EarlierScore.count({ where: { linkId: ids.link } })).toBe(1)
+  expect(await t.deps.models.EarlierScore.findByPk(ids.earlier)).toMatchObject({ total: 17, instrument: 'phq9' })
   expect(await t.deps.models.AuditEvent.count({ where: { action: 'shares.read', subjectUserId: link!.personId } })).toBe(0)
 }
 
@@ -122,6 +140,12 @@ describe('IDOR attempts with real ids of someone else', () => {
     expect(res.body.status).toBe('stored')
     expect(await t.deps.models.SharedEntry.count({ where: { entryId: ids.entry } })).toBe(2)
     await actors.otherPerson!.del(`/api/links/${ids.otherLink}/shares/${ids.entry}?version=60`)
+    await ownerStateUnchanged()
+  })
+
+  it('another therapist cannot delete the owner\'s earlier score through their own client\'s link', async () => {
+    const res = await actors.otherTherapist!.del(`/api/therapist/links/${ids.otherClientLink}/earlier-scores/${ids.earlier}`)
+    expect(res.status).toBe(404)
     await ownerStateUnchanged()
   })
 

@@ -162,7 +162,7 @@ export async function listTherapistLinks(deps: Deps, therapistId: string): Promi
 
 /**
  * Ends a link from either side. Every shared copy is withdrawn in the same transaction: payloads dropped, tombstones kept,
- * so the therapist's screens have nothing left to show. Ending an ended link changes nothing.
+ * and the earlier scores entered for the link are removed, so the therapist's screens have nothing left to show. Ending an ended link changes nothing.
  */
 export async function endLink(deps: Deps, user: User, linkId: string): Promise<{ state: 'ended'; endedAt: string }> {
   const link = await linkOfEitherSide(deps, user, linkId)
@@ -173,6 +173,8 @@ export async function endLink(deps: Deps, user: User, linkId: string): Promise<{
     await deps.models.SharedEntry.update({ payload: null, withdrawnAt: now }, { where: { linkId, withdrawnAt: null }, transaction })
     // Copies already tombstoned keep their withdrawal time; any stray payload is dropped all the same.
     await deps.models.SharedEntry.update({ payload: null }, { where: { linkId, payload: { [Op.ne]: null } }, transaction })
+    // Earlier scores the therapist entered belong to the link's shared record, so they go with it.
+    await deps.models.EarlierScore.destroy({ where: { linkId }, transaction })
     await deps.models.AuditEvent.create({ actorId: user.id, action: 'link.ended', subjectUserId: link.personId, subjectId: link.id }, { transaction })
   })
   const [person, therapist] = await Promise.all([deps.models.User.findByPk(link.personId), deps.models.User.findByPk(link.therapistId)])

@@ -7,6 +7,7 @@ import type { PrepNote } from '../../db/models/PrepNote'
 import { HttpError } from '../../middleware/HttpError'
 import { clock, linkOfTherapist } from '../links/linkAccess'
 import { lastSessionOf } from '../links/links.service'
+import { caseloadMeasures } from '../measures/measures.service'
 
 type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'now'>
 
@@ -16,11 +17,13 @@ const live = { withdrawnAt: null, payload: { [Op.ne]: null } }
 /**
  * One row per active link of this therapist: who, when they last shared, how many copies arrived since the last session
  * (the latest past appointment, else the link's start), how many are marked to discuss, the next appointment and whether
- * any live copy carries a risk flag. Counts only: no content, so no audit row.
+ * any live copy carries a risk flag, plus the latest PHQ-9 and GAD-7 with change since the first (two queries for the
+ * whole caseload; those summaries write their own access-log rows).
  */
 export async function caseload(deps: Deps, therapistId: string): Promise<CaseloadRow[]> {
   const links = await deps.models.Link.findAll({ where: { therapistId, state: 'active' }, include: [{ model: deps.models.User, as: 'person' }], order: [['startedAt', 'ASC']] })
   const now = clock(deps)
+  const measures = await caseloadMeasures(deps, therapistId, links)
   return Promise.all(
     links.map(async (link) => {
       const [shares, lastSession, next] = await Promise.all([
@@ -40,6 +43,7 @@ export async function caseload(deps: Deps, therapistId: string): Promise<Caseloa
         toDiscussCount: shares.filter((s) => s.toDiscuss).length,
         nextAppointment: iso(next?.at),
         riskFlag: shares.some((s) => s.riskFlag),
+        measures: measures.get(link.id) ?? { phq9: null, gad7: null },
       }
     }),
   )
