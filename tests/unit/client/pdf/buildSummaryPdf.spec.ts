@@ -1,5 +1,4 @@
 /// <reference types="node" />
-import fs from 'node:fs'
 import { PDFDocument } from 'pdf-lib'
 import { describe, expect, it } from 'vitest'
 import { buildSummaryPdf, summaryDateRange, type SummaryInput } from '@/pdf/buildSummaryPdf'
@@ -110,6 +109,5 @@ describe('buildSummaryPdf', () => {
     const text = squash(poppler('pdftotext', bytes))
     expect(text).toContain('Ladder, lowest rung first:')
     expect(text).toContain('60. Rung number 60')
-    fs.mkdirSync('.screens/summary', { recursive: true })
   })
 })
