@@ -7,6 +7,7 @@ import { PDFDocument } from 'pdf-lib'
 import { afterAll, describe, expect, it } from 'vitest'
 import { searchWords } from '../../shared/content/searchWords'
 import type { Entry } from '../../shared/schemas/entry.schema'
+import { seriousViolations } from '../helpers/axe'
 import { freshContext } from '../helpers/chromium'
 import { seedDevice } from '../helpers/deviceSeed'
 import { startE2eServer } from '../helpers/e2eServer'
@@ -79,6 +80,7 @@ describe('appointment summary PDF', () => {
     const rows = page.locator('[data-test=summary-entry]')
     await rows.first().waitFor()
     expect(await rows.count()).toBe(4)
+    expect(await seriousViolations(page)).toEqual([])
     await rows.filter({ hasText: 'quince tree' }).getByRole('checkbox').click()
     expect(await page.locator('[data-test=summary-entry-count]').textContent()).toContain('3 of 4 chosen')
     await page.getByRole('checkbox', { name: 'Include my safety plan' }).click()
@@ -125,6 +127,25 @@ describe('appointment summary PDF', () => {
     await page.reload()
     await page.locator('[data-test=bring-up-item]').first().waitFor()
     expect(errors).toEqual([])
+    await close()
+  })
+
+  it('passes axe in dark mode, with the safety plan choice disabled and explained when there is no plan', async () => {
+    server ??= await startE2eServer()
+    const { context, close } = await freshContext({ colorScheme: 'dark', width: 1280, height: 800, locale: 'en-US' })
+    const page = await context.newPage()
+    await page.goto(server.url)
+    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
+    await seedDevice(page, journal(Date.now()).filter((e) => e.kind !== 'safetyPlan'))
+    await page.goto(`${server.url}/more/summary`)
+    await page.locator('[data-test=summary-entry]').first().waitFor()
+    expect(await page.getByRole('checkbox', { name: 'Include my safety plan' }).getAttribute('aria-disabled')).toBe('true')
+    await page.getByText('There is no safety plan on this device yet').waitFor()
+    // Letter is the default paper in the US.
+    expect(await page.getByRole('radio', { name: 'Letter' }).getAttribute('aria-checked')).toBe('true')
+    expect(await page.getByRole('radio', { name: 'A4' }).getAttribute('aria-checked')).toBe('false')
+    expect(await seriousViolations(page)).toEqual([])
+    await page.screenshot({ path: path.join(screens, 'summary-1280-dark.png') })
     await close()
   })
 })
