@@ -40,9 +40,9 @@ export interface TrashedEntry {
 
 /** Unsaved writing, saved as the person types, so a reload or crash loses nothing. */
 export interface Draft {
-  /** 'moment:new', 'tug:new', or 'edit:<entry id>'. */
+  /** 'moment:new', 'tug:new', 'edit:<entry id>', or 'safetyPlan'. */
   id: string
-  kind: 'moment' | 'tug'
+  kind: 'moment' | 'tug' | 'safetyPlan'
   /** The entry being edited, when this draft edits one. */
   entryId?: string
   /** The fields typed so far, in the entry's own shape. */

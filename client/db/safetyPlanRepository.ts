@@ -8,3 +8,6 @@ export async function getSafetyPlanEntry(): Promise<Entry | undefined> {
   const latest = rows.sort((a, b) => b.updatedAt - a.updatedAt)[0]
   return latest && fromStored(latest)
 }
+
+/** The one draft of the plan being edited (new or existing), so leaving mid-edit loses nothing. */
+export const SAFETY_PLAN_DRAFT_ID = 'safetyPlan'

@@ -2,7 +2,9 @@ import { mount, flushPromises } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { Quasar } from 'quasar'
 import { beforeEach, describe, expect, it } from 'vitest'
+import { createMemoryHistory, createRouter } from 'vue-router'
 import HelpNowDialog from '@/components/HelpNowDialog.vue'
+import { routes } from '@/router/routes'
 import { useDeviceSettingsStore } from '@/stores/deviceSettings'
 
 async function openDialog(region: 'UK' | 'IE' | 'US') {
@@ -38,6 +40,22 @@ describe('HelpNowDialog', () => {
     expect(document.querySelector('[data-test=emergency-call]')?.getAttribute('href')).toBe('tel:112')
     // Ireland's 112 is marked [M] in REFERENCE §5.
     expect(document.body.textContent).toContain('Check this number locally.')
+    w.unmount()
+  })
+
+  it('offers the safety plan in one tap, with no sign-in on the way', async () => {
+    const pinia = createPinia()
+    setActivePinia(pinia)
+    const router = createRouter({ history: createMemoryHistory(), routes })
+    await router.push('/')
+    await router.isReady()
+    const w = mount(HelpNowDialog, { props: { modelValue: true }, global: { plugins: [[Quasar, {}], pinia, router] }, attachTo: document.body })
+    await flushPromises()
+    const plan = document.querySelector('[data-test=help-now-safety-plan]')
+    expect(plan?.textContent).toContain('My safety plan')
+    expect(plan?.getAttribute('href')).toBe('/more/safety-plan')
+    // The plan's route asks for no role, so the one guard lets anyone through.
+    expect(router.resolve({ name: 'safetyPlan' }).matched.flatMap((r) => r.meta.roles ?? [])).toEqual([])
     w.unmount()
   })
 })
