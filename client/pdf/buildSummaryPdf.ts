@@ -7,7 +7,6 @@ import type { MeasureResult } from '@shared/schemas/measure.schema'
 import { drawDistressChart } from './distressChart'
 import { drawMeasureTable } from './measureTable'
 import { needsExt, type GlyphCoverage } from './pdfGlyphs'
-import type { SafetyPlanSection } from './safetyPlanSections'
 import { pdfPalette, SummaryLayout, type FontFiles, type PageSize, type SummaryFonts } from './summaryLayout'
 import { planTugLadders } from './tugLadderBlock'
 
@@ -33,6 +32,12 @@ export interface SummaryInput {
   /** Null when the person left the safety plan out. */
   safetyPlan: SafetyPlanSection[] | null
   generatedAt: number
+}
+
+/** One titled part of the safety plan as the PDF prints it (from shared/content/safetyPlanSections.ts). */
+export interface SafetyPlanSection {
+  title: string
+  lines: string[]
 }
 
 export type SummaryProgress = (fraction: number, label: string) => void

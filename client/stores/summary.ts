@@ -3,14 +3,14 @@ import { defineStore } from 'pinia'
 import { computed, ref, shallowRef } from 'vue'
 import type { Entry } from '@shared/schemas/entry.schema'
 import type { MeasureResult } from '@shared/schemas/measure.schema'
+import { safetyPlanSections } from '@shared/content/safetyPlanSections'
 import { measureResultOfEntry } from '@shared/scoring/measureResults'
 import { entriesBetween } from '@/db/entriesRepository'
 import { listStoredLinks } from '@/db/linksRepository'
 import { listMeasureEntries } from '@/db/measuresRepository'
 import { getSafetyPlanEntry } from '@/db/safetyPlanRepository'
 import { readBringUp, writeBringUp } from '@/db/summaryPrefsRepository'
-import type { SummaryInput } from '@/pdf/buildSummaryPdf'
-import { safetyPlanSections, type SafetyPlanSection } from '@/pdf/safetyPlanSections'
+import type { SafetyPlanSection, SummaryInput } from '@/pdf/buildSummaryPdf'
 import type { PageSize } from '@/pdf/summaryLayout'
 
 export type SummaryPreset = 'lastSession' | '14d' | '30d' | '90d' | 'custom'
@@ -98,7 +98,8 @@ export const useSummaryStore = defineStore('summary', () => {
       const [last, items, planEntry] = await Promise.all([readLastSession(), readBringUp(), getSafetyPlanEntry()])
       lastSessionAt.value = last
       bringUp.value = items
-      safetyPlan.value = planEntry?.safetyPlan ? safetyPlanSections(planEntry.safetyPlan) : null
+      // Steps not filled in yet are left out of the PDF.
+      safetyPlan.value = planEntry?.safetyPlan ? safetyPlanSections(planEntry.safetyPlan).filter((s) => s.lines.length).map(({ title, lines }) => ({ title, lines })) : null
       if (!hasSafetyPlan.value) includeSafetyPlan.value = false
       await loadPeriod()
     } finally {
