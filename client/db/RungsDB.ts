@@ -1,6 +1,7 @@
 import Dexie, { type EntityTable } from 'dexie'
 import type { RegionCode } from '@shared/content/crisisLines'
 import type { Entry } from '@shared/schemas/entry.schema'
+import type { EarlierScoreView } from '@shared/schemas/measure.schema'
 import type { PersonLinkRow } from '@shared/schemas/link.schema'
 
 /** Settings kept on this device, one row per key. */
@@ -76,6 +77,12 @@ export interface StoredLink extends PersonLinkRow {
   syncedAt: number
 }
 
+/** An earlier score the therapist entered (e.g. intake on paper), cached so the history shows offline. */
+export interface StoredEarlierScore extends EarlierScoreView {
+  linkId: string
+  syncedAt: number
+}
+
 /** The device database. Schema changes only ever add a version(n + 1). */
 export class RungsDB extends Dexie {
   settings!: EntityTable<SettingRow, 'key'>
@@ -84,6 +91,7 @@ export class RungsDB extends Dexie {
   trash!: EntityTable<TrashedEntry, 'id'>
   outbox!: EntityTable<OutboxRow, 'id'>
   links!: EntityTable<StoredLink, 'id'>
+  earlierScores!: EntityTable<StoredEarlierScore, 'id'>
 
   constructor(name = 'rungs') {
     super(name)
@@ -97,5 +105,6 @@ export class RungsDB extends Dexie {
       outbox: 'id, [entryId+linkId], nextAttemptAt',
       links: 'id',
     })
+    this.version(4).stores({ earlierScores: 'id, linkId' })
   }
 }

@@ -2,7 +2,7 @@ import { searchWords } from '@shared/content/searchWords'
 import { entryInputSchema, entrySchema, type Entry, type EntryInput, type EntryKind } from '@shared/schemas/entry.schema'
 import { db } from './db'
 import { entryWords } from './entryWords'
-import { journalIndex } from './journalIndex'
+import { isJournalKind, journalIndex, journalKinds } from './journalIndex'
 import type { StoredEntry } from './RungsDB'
 
 /** How long a deleted entry can still be brought back (and survives a closed tab). */
@@ -117,8 +117,9 @@ export async function listJournal(filter: JournalFilter = {}): Promise<JournalRo
   return rows
 }
 
+/** The latest journal entries (moments and tugs; questionnaires and the safety plan have their own screens). */
 export async function recentEntries(limit: number): Promise<Entry[]> {
-  return (await db.entries.orderBy('createdAt').reverse().limit(limit).toArray()).map(fromStored)
+  return (await db.entries.orderBy('createdAt').reverse().filter((e) => isJournalKind(e.kind)).limit(limit).toArray()).map(fromStored)
 }
 
 /** Entries whose time falls in [from, to], oldest first, for patterns and summaries. */
@@ -131,6 +132,12 @@ export async function tagsInUse(): Promise<string[]> {
   return (await db.entries.orderBy('tags').uniqueKeys()) as string[]
 }
 
+/** Every entry on this device, of any kind (what a backup holds). */
 export async function countEntries(): Promise<number> {
   return db.entries.count()
+}
+
+/** Moments and tugs only, from the kind index. */
+export async function countJournalEntries(): Promise<number> {
+  return db.entries.where('kind').anyOf([...journalKinds]).count()
 }

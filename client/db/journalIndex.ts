@@ -26,10 +26,15 @@ function lowerBound(sorted: string[], key: string): number {
   return lo
 }
 
+/** Kinds with screens of their own (Measures, Safety plan); the journal list, recent entries and counts leave them out. */
+export const journalKinds: readonly EntryKind[] = ['moment', 'tug']
+export const isJournalKind = (kind: EntryKind): boolean => journalKinds.includes(kind)
+
 async function build(): Promise<JournalIndex> {
   const rows: IndexRow[] = []
   const postings = new Map<string, string[]>()
   await db.entries.each((e) => {
+    if (!isJournalKind(e.kind)) return
     rows.push({ id: e.id, createdAt: e.createdAt, kind: e.kind, tags: e.tags })
     for (const w of e.words) {
       const list = postings.get(w)

@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import type { Entry, EntryInput } from '@shared/schemas/entry.schema'
 import { useLiveQuery } from '@/composables/useLiveQuery'
-import { countEntries, createEntry, getEntry, recentEntries, restoreEntry, tagsInUse, trashEntry } from '@/db/entriesRepository'
+import { countJournalEntries, createEntry, getEntry, recentEntries, restoreEntry, tagsInUse, trashEntry } from '@/db/entriesRepository'
 import { queueShare, queueWithdraw, updateEntryAndRequeue } from '@/db/outboxRepository'
 import { requestPersistentStorage } from '@/db/storageRepository'
 import { kickOutbox } from '@/sync/outboxRunner'
@@ -10,7 +10,7 @@ import { kickOutbox } from '@/sync/outboxRunner'
 export const useEntriesStore = defineStore('entries', () => {
   const { result: recent, loaded: recentLoaded } = useLiveQuery(() => recentEntries(5), [] as Entry[])
   const { result: tags } = useLiveQuery(() => tagsInUse(), [] as string[])
-  const { result: count } = useLiveQuery(() => countEntries(), 0)
+  const { result: count } = useLiveQuery(() => countJournalEntries(), 0)
 
   async function create(input: EntryInput): Promise<Entry> {
     const entry = await createEntry(input)
