@@ -4,7 +4,8 @@ import { computed, ref, shallowRef } from 'vue'
 import type { Entry } from '@shared/schemas/entry.schema'
 import type { MeasureResult } from '@shared/schemas/measure.schema'
 import { safetyPlanSections } from '@shared/content/safetyPlanSections'
-import { measureResultOfEntry } from '@shared/scoring/measureResults'
+import { measureResultOfEarlierScore, measureResultOfEntry } from '@shared/scoring/measureResults'
+import { listEarlierScores } from '@/db/earlierScoresRepository'
 import { entriesBetween } from '@/db/entriesRepository'
 import { listStoredLinks } from '@/db/linksRepository'
 import { listMeasureEntries } from '@/db/measuresRepository'
@@ -82,12 +83,12 @@ export const useSummaryStore = defineStore('summary', () => {
   /** What falls in the period; everything ticked, as the person starts from "all of it". */
   async function loadPeriod(): Promise<void> {
     const { from, to } = period.value
-    const [inRange, measureEntries] = await Promise.all([entriesBetween(from, to), listMeasureEntries()])
+    const [inRange, measureEntries, earlier] = await Promise.all([entriesBetween(from, to), listMeasureEntries(), listEarlierScores()])
     entries.value = inRange.filter((e) => e.kind === 'moment' || e.kind === 'tug').sort((a, b) => b.createdAt - a.createdAt)
-    measures.value = measureEntries
-      .filter((e) => e.createdAt >= from && e.createdAt <= to)
-      .map(measureResultOfEntry)
-      .filter((r): r is MeasureResult => r !== null)
+    // The person's own questionnaires and the earlier scores their therapist entered (cached on the device).
+    measures.value = [...measureEntries.map(measureResultOfEntry), ...earlier.map(measureResultOfEarlierScore)]
+      .filter((r): r is MeasureResult => r !== null && Date.parse(r.takenAt) >= from && Date.parse(r.takenAt) <= to)
+      .sort((a, b) => a.takenAt.localeCompare(b.takenAt))
     chosenEntries.value = entries.value.map((e) => e.id)
     chosenMeasures.value = measures.value.map((m) => m.id)
   }
