@@ -40,6 +40,8 @@ export default defineConfig({
       workbox: {
         // Fonts too, so Lora and the icons render offline after one visit.
         globPatterns: ['**/*.{js,css,html,woff,woff2,png,svg,ico,webmanifest}'],
+        // The lazy PDF chunk (pdf-lib + fontkit, about 1.1 MB) must stay in the precache so summaries build offline.
+        maximumFileSizeToCacheInBytes: 3 * 1024 * 1024,
         navigateFallback: 'index.html',
         navigateFallbackDenylist: [/^\/api\//],
         cleanupOutdatedCaches: true,

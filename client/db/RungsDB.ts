@@ -18,6 +18,8 @@ export interface DeviceSettings {
   backupReminderSnoozedAt: number
   /** Whether the browser granted persistent storage, as last asked. */
   storagePersisted: boolean
+  /** "Things I want to bring up" on the appointment summary, kept between visits. */
+  summaryBringUp: string[]
 }
 export type SettingKey = keyof DeviceSettings
 export interface SettingRow<K extends SettingKey = SettingKey> {

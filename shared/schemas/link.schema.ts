@@ -49,6 +49,8 @@ export const personLinkRowSchema = z.object({
   endedBy: z.enum(['person', 'therapist']).nullable(),
   therapist: z.object({ displayName: z.string(), practice: z.string(), registration: z.string(), approval: approvalSchema.nullable() }),
   nextAppointment: z.string().nullable(),
+  /** The latest past appointment (ISO), or null: where "since the last session" starts on the summary. */
+  lastSessionAt: z.string().nullable(),
 })
 export type PersonLinkRow = z.infer<typeof personLinkRowSchema>
 

@@ -168,13 +168,15 @@ describe('GET /api/person/links and /api/therapist/links', () => {
 })
 
 describe('appointments', () => {
-  it('lets the therapist add and list sessions; the person sees the next one', async () => {
+  it('lets the therapist add and list sessions; the person sees the next one and the latest past one', async () => {
     const th = await makeTherapist(t, 'Quinn Harrow')
     const therapist = await signedInAs(t, th)
     const person = await signedInAs(t, await makePerson(t, 'Noa'))
     const linkId = await linkUp(therapist, person)
     const soon = new Date(Date.now() + 3 * 86_400_000).toISOString()
     const later = new Date(Date.now() + 10 * 86_400_000).toISOString()
+    const lastWeek = new Date(Date.now() - 7 * 86_400_000).toISOString()
+    const longAgo = new Date(Date.now() - 30 * 86_400_000).toISOString()
     expect((await therapist.post(`/api/therapist/links/${linkId}/appointments`, { at: later })).status).toBe(201)
     expect((await therapist.post(`/api/therapist/links/${linkId}/appointments`, { at: soon })).status).toBe(201)
     expect(await t.deps.models.Appointment.count({ where: { linkId } })).toBe(2)
@@ -182,6 +184,13 @@ describe('appointments', () => {
     expect(list.body.appointments.map((a: { at: string }) => a.at)).toEqual([soon, later])
     const mine = await person.get('/api/person/links')
     expect(mine.body.links[0].nextAppointment).toBe(soon)
+    expect(mine.body.links[0].lastSessionAt).toBeNull()
+    expect((await therapist.post(`/api/therapist/links/${linkId}/appointments`, { at: longAgo })).status).toBe(201)
+    expect((await therapist.post(`/api/therapist/links/${linkId}/appointments`, { at: lastWeek })).status).toBe(201)
+    expect(await t.deps.models.Appointment.count({ where: { linkId } })).toBe(4)
+    const after = await person.get('/api/person/links')
+    // The summary's "since the last session" starts at the latest past one, not the earliest.
+    expect(after.body.links[0]).toMatchObject({ lastSessionAt: lastWeek, nextAppointment: soon })
     expect((await therapist.post(`/api/therapist/links/${linkId}/appointments`, { at: 'next tuesday' })).status).toBe(400)
   })
 })

@@ -88,3 +88,18 @@ export function percentile(samples: number[], p: number): number {
 export function spread(samples: number[]): Spread {
   return { median: percentile(samples, 50), p95: percentile(samples, 95), max: Math.max(...samples) }
 }
+
+/** The 90-day appointment summary built in the page: read from Dexie, then the PDF with Lora embedded. */
+export interface SummaryBenchResults {
+  runs: number
+  days: number
+  /** Moments and tugs in the PDF. */
+  entries: number
+  measures: number
+  /** Reading the period's entries and questionnaires from Dexie. */
+  gather: Spread
+  /** Reading plus building the PDF (fonts from the page's cache after the untimed first build). */
+  total: Spread
+  bytes: number
+  pages: number
+}

@@ -13,7 +13,7 @@ import viteConfig from '../../vite.config'
 import { loadConfig } from '../../server/config/env'
 import { startServer, type Running } from '../../server/start'
 import { freshContext } from '../helpers/chromium'
-import { spread, type BenchResults, type OutboxResults, type Spread } from './benchResults'
+import { spread, type BenchResults, type OutboxResults, type Spread, type SummaryBenchResults } from './benchResults'
 
 const SAVE_RATIO_BUDGET = 2
 const SEARCH_BUDGET_MS = 30
@@ -46,7 +46,7 @@ async function buildPage(outDir: string): Promise<void> {
       outDir,
       emptyOutDir: true,
       reportCompressedSize: false,
-      rollupOptions: { input: { index: path.join(pageRoot, 'index.html'), outbox: path.join(pageRoot, 'outbox.html') } },
+      rollupOptions: { input: { index: path.join(pageRoot, 'index.html'), outbox: path.join(pageRoot, 'outbox.html'), summary: path.join(pageRoot, 'summary.html') } },
     },
   })
 }
@@ -105,6 +105,16 @@ function report(r: BenchResults, buildMs: number): string {
     '',
   ]
   return lines.join('\n')
+}
+
+function summaryReport(r: SummaryBenchResults): string {
+  return [
+    `Appointment summary PDF in the page (${r.days} days: ${group(r.entries)} moments and tugs, ${r.measures} questionnaires; A4, Lora subset embedded)`,
+    row(`90-day summary PDF build (median / p95 / max of ${r.runs}, after one untimed build)`, trio(r.total)),
+    row('  of which reading the period from Dexie (median / p95 / max)', trio(r.gather)),
+    row('  PDF size and pages', `${(r.bytes / 1024).toFixed(0)} kB, ${r.pages} pages`),
+    '',
+  ].join('\n')
 }
 
 /** What the server's own request log said about each share PUT (handler time, from the request to the response's end). */
@@ -240,6 +250,16 @@ async function main(): Promise<void> {
       'The bench page',
     )
     console.log(report(results, buildMs))
+    const summaryPage = await browser.context.newPage()
+    summaryPage.on('pageerror', (e) => console.error(`summary page error: ${e.message}`))
+    await summaryPage.goto(origin + '/summary.html')
+    const summary = await withDeadline(
+      summaryPage.evaluate(() => (globalThis as unknown as { runSummaryBench(): Promise<SummaryBenchResults> }).runSummaryBench()),
+      'The summary bench page',
+      90_000,
+    )
+    await summaryPage.close()
+    console.log(summaryReport(summary))
     console.log(
       await benchOutbox(browser.context, outDir, tmp, (r) => {
         rungs = r

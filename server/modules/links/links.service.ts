@@ -120,6 +120,12 @@ async function nextAppointment(deps: Deps, linkId: string): Promise<Date | null>
   return next?.at ?? null
 }
 
+/** The latest appointment already past: "since the last session" on the person's summary starts here. */
+async function lastAppointment(deps: Deps, linkId: string): Promise<Date | null> {
+  const last = await deps.models.Appointment.findOne({ where: { linkId, at: { [Op.lte]: clock(deps) } }, order: [['at', 'DESC']] })
+  return last?.at ?? null
+}
+
 const endedByRole = (link: Link): 'person' | 'therapist' | null => (!link.endedBy ? null : link.endedBy === link.personId ? 'person' : 'therapist')
 
 async function presentPersonLink(deps: Deps, link: Link, therapist: User): Promise<PersonLinkRow> {
@@ -131,6 +137,7 @@ async function presentPersonLink(deps: Deps, link: Link, therapist: User): Promi
     endedBy: endedByRole(link),
     therapist: await therapistCard(deps, therapist),
     nextAppointment: link.state === 'active' ? iso(await nextAppointment(deps, link.id)) : null,
+    lastSessionAt: iso(await lastAppointment(deps, link.id)),
   }
 }
 

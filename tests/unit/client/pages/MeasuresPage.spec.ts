@@ -20,7 +20,7 @@ const DAY = 86_400_000
 const NOW = Date.now()
 const me = { id: 'u1', email: 'rowan@example.org', displayName: 'Rowan', role: 'person', emailVerified: true, emailNotices: true, therapist: null }
 const link = {
-  id: 'link-1', state: 'active' as const, startedAt: '2026-01-05T10:00:00.000Z', endedAt: null, endedBy: null, nextAppointment: null,
+  id: 'link-1', state: 'active' as const, startedAt: '2026-01-05T10:00:00.000Z', endedAt: null, endedBy: null, nextAppointment: null, lastSessionAt: null,
   therapist: { displayName: 'Dr Ines Marlow', practice: 'Harbour Lane Practice', registration: 'HCPC PYL00000', approval: null },
 }
 
