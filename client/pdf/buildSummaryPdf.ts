@@ -1,3 +1,4 @@
+import type { InstrumentId } from '@shared/content/measureForms'
 import fontkit from '@pdf-lib/fontkit'
 import { format } from 'date-fns'
 import { PDFDocument } from 'pdf-lib'
@@ -27,6 +28,8 @@ export interface SummaryInput {
   /** The moments and tugs the person ticked. */
   entries: Entry[]
   measures: MeasureResult[]
+  /** The first score ever of each measure (it may fall before the period, e.g. an intake score), so change counts from it. */
+  firstScores?: Partial<Record<InstrumentId, MeasureResult>>
   /** "Things I want to bring up", in the person's order. */
   bringUp: string[]
   /** Null when the person left the safety plan out. */
@@ -168,7 +171,7 @@ export async function buildSummaryPdf(input: SummaryInput, fontBytes: SummaryFon
   onProgress(0.35, 'Writing the questionnaires')
   await tick()
   layout.heading('Questionnaires')
-  drawMeasureTable(layout, input.measures)
+  drawMeasureTable(layout, input.measures, input.firstScores)
 
   if (tugs.length) {
     layout.heading('Tugs', 120)

@@ -1,5 +1,5 @@
 import { format } from 'date-fns'
-import { measureForms } from '@shared/content/measureForms'
+import { measureForms, type InstrumentId } from '@shared/content/measureForms'
 import type { MeasureResult } from '@shared/schemas/measure.schema'
 import { plainChange } from '@shared/scoring/plainChange'
 import { scoredSeries } from '@shared/scoring/measureResults'
@@ -13,12 +13,18 @@ const columns = [
   { label: 'Change from first', width: 0.32 },
 ] as const
 
-/** One row per result, oldest first: date, measure, score, band and plain change from the first score of that measure. */
-export function measureRows(results: readonly MeasureResult[]): { cells: string[]; reliableWorsening: boolean }[] {
+type FirstScores = Partial<Record<InstrumentId, MeasureResult>>
+
+/**
+ * One row per result, oldest first: date, measure, score, band and plain change from the first score of that measure —
+ * the first ever when given (it may predate the period), else the first in the summary.
+ */
+export function measureRows(results: readonly MeasureResult[], firstScores: FirstScores = {}): { cells: string[]; reliableWorsening: boolean }[] {
   const sorted = [...results].sort((a, b) => a.takenAt.localeCompare(b.takenAt))
   return sorted.map((r) => {
     const form = measureForms[r.instrument]
-    const first = scoredSeries(results, r.instrument)[0]
+    const given = firstScores[r.instrument]
+    const first = given && given.total !== null ? { id: given.id, total: given.total } : scoredSeries(results, r.instrument)[0]
     const change = r.total !== null && first && first.id !== r.id ? plainChange(r.instrument, first.total, r.total) : null
     return {
       cells: [
@@ -26,14 +32,14 @@ export function measureRows(results: readonly MeasureResult[]): { cells: string[
         r.source === 'therapist' ? `${form.name}\nentered by your therapist` : form.name,
         r.total === null ? 'not scored' : `${r.total} of ${form.maxTotal}${r.prorated ? '*' : ''}`,
         r.band ?? '-',
-        change ? change.text : r.total !== null && first?.id === r.id ? 'first in this summary' : '-',
+        change ? change.text : r.total !== null && first?.id === r.id ? (given ? 'first score' : 'first in this summary') : '-',
       ],
       reliableWorsening: change?.reliableWorsening ?? false,
     }
   })
 }
 
-export function drawMeasureTable(layout: SummaryLayout, results: readonly MeasureResult[]): void {
+export function drawMeasureTable(layout: SummaryLayout, results: readonly MeasureResult[], firstScores: FirstScores = {}): void {
   if (!results.length) {
     layout.paragraph('No questionnaires chosen for this summary.', { color: pdfPalette.inkSoft })
     return
@@ -55,7 +61,7 @@ export function drawMeasureTable(layout: SummaryLayout, results: readonly Measur
     layout.rule()
   }
   header()
-  const rows = measureRows(results)
+  const rows = measureRows(results, firstScores)
   for (const row of rows) {
     const wrapped = row.cells.map((cell, i) => layout.wrap(cell, widthOf(i), { size }))
     const h = Math.max(...wrapped.map((w) => w.length)) * lh + 4

@@ -1,10 +1,11 @@
+import type { InstrumentId } from '@shared/content/measureForms'
 import { endOfDay, format, isValid, parseISO, startOfDay, subDays } from 'date-fns'
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef } from 'vue'
 import type { Entry } from '@shared/schemas/entry.schema'
 import type { MeasureResult } from '@shared/schemas/measure.schema'
 import { safetyPlanSections } from '@shared/content/safetyPlanSections'
-import { measureResultOfEarlierScore, measureResultOfEntry } from '@shared/scoring/measureResults'
+import { measureResultOfEarlierScore, measureResultOfEntry, scoredSeries } from '@shared/scoring/measureResults'
 import { listEarlierScores } from '@/db/earlierScoresRepository'
 import { entriesBetween } from '@/db/entriesRepository'
 import { listStoredLinks } from '@/db/linksRepository'
@@ -41,6 +42,7 @@ export const useSummaryStore = defineStore('summary', () => {
   const lastSessionAt = ref<number | null>(null)
   const entries = shallowRef<Entry[]>([])
   const measures = shallowRef<MeasureResult[]>([])
+  const firstScores = shallowRef<Partial<Record<InstrumentId, MeasureResult>>>({})
   const chosenEntries = ref<string[]>([])
   const chosenMeasures = ref<string[]>([])
   const bringUp = ref<string[]>([])
@@ -86,9 +88,10 @@ export const useSummaryStore = defineStore('summary', () => {
     const [inRange, measureEntries, earlier] = await Promise.all([entriesBetween(from, to), listMeasureEntries(), listEarlierScores()])
     entries.value = inRange.filter((e) => e.kind === 'moment' || e.kind === 'tug').sort((a, b) => b.createdAt - a.createdAt)
     // The person's own questionnaires and the earlier scores their therapist entered (cached on the device).
-    measures.value = [...measureEntries.map(measureResultOfEntry), ...earlier.map(measureResultOfEarlierScore)]
-      .filter((r): r is MeasureResult => r !== null && Date.parse(r.takenAt) >= from && Date.parse(r.takenAt) <= to)
-      .sort((a, b) => a.takenAt.localeCompare(b.takenAt))
+    const all = [...measureEntries.map(measureResultOfEntry), ...earlier.map(measureResultOfEarlierScore)].filter((r): r is MeasureResult => r !== null)
+    // Change counts from the true first score, which may be an intake score from before the period.
+    firstScores.value = Object.fromEntries((['phq9', 'gad7'] as const).flatMap((m) => scoredSeries(all, m).slice(0, 1).map((r) => [m, r])))
+    measures.value = all.filter((r) => Date.parse(r.takenAt) >= from && Date.parse(r.takenAt) <= to).sort((a, b) => a.takenAt.localeCompare(b.takenAt))
     chosenEntries.value = entries.value.map((e) => e.id)
     chosenMeasures.value = measures.value.map((m) => m.id)
   }
@@ -127,6 +130,7 @@ export const useSummaryStore = defineStore('summary', () => {
       pageSize: pageSize.value,
       entries: entries.value.filter((e) => ids.has(e.id)),
       measures: measures.value.filter((m) => mids.has(m.id)),
+      firstScores: firstScores.value,
       bringUp: bringUp.value.filter((s) => s.trim()),
       safetyPlan: includeSafetyPlan.value && hasSafetyPlan.value ? safetyPlan.value : null,
       generatedAt: now,
