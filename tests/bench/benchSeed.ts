@@ -55,7 +55,7 @@ function benchMeasure(id: string, instrument: 'phq9' | 'gad7', i: number, takenA
     backgroundThoughts: [],
     tags: [],
     shares: [],
-    measure: { instrument, answers: Array.from({ length: n }, (_, k) => (i + k) % 4), completedAt: takenAt },
+    measure: { instrument, answers: Array.from({ length: n }, (_, k) => ((i + k) % 4) as 0 | 1 | 2 | 3), completedAt: takenAt },
   }
 }
 
