@@ -13,7 +13,13 @@ import viteConfig from '../../vite.config'
 import { loadConfig } from '../../server/config/env'
 import { startServer, type Running } from '../../server/start'
 import { freshContext } from '../helpers/chromium'
-import { spread, type BenchResults, type OutboxResults, type Spread, type SummaryBenchResults } from './benchResults'
+import { group, misses, ms, row, trio } from './benchFormat'
+import { spread, type BenchResults, type OutboxResults, type SummaryBenchResults } from './benchResults'
+import { benchCaseload } from './caseloadBench'
+import { benchFault } from './faultBench'
+import { benchLoad } from './loadBench'
+import { benchPages } from './pageBench'
+import type { RungsProcess } from './rungsProcess'
 
 const SAVE_RATIO_BUDGET = 2
 const SEARCH_BUDGET_MS = 30
@@ -25,11 +31,6 @@ const PERSON = { email: 'robin.ashdown@example.org', password: 'demo-person-orch
 
 const pageRoot = fileURLToPath(new URL('./browser', import.meta.url))
 
-const group = (n: number) => String(Math.round(n)).replace(/\B(?=(\d{3})+(?!\d))/g, ' ')
-const ms = (n: number) => (n >= 100 ? group(n) : n.toFixed(n >= 10 ? 1 : 2))
-const trio = (s: Spread) => `${ms(s.median)} / ${ms(s.p95)} / ${ms(s.max)} ms`
-const misses = (over: boolean) => (over ? '   MISSES BUDGET' : '')
-const row = (label: string, figure: string, rest = '') => `  ${label.padEnd(72)} ${figure.padStart(22)}${rest}`
 
 async function buildPage(outDir: string): Promise<void> {
   await build({
@@ -213,12 +214,29 @@ async function benchOutbox(context: Awaited<ReturnType<typeof freshContext>>['co
   return outboxReport(results, await checkShares(running, results), putMs)
 }
 
+const SECTIONS = ['storage', 'summary', 'outbox', 'pages', 'caseload', 'load', 'fault'] as const
+type Section = (typeof SECTIONS)[number]
+
+/** `npm run bench` runs every section; `npm run bench -- load fault` runs only those. */
+function chosenSections(): Set<Section> {
+  const asked = process.argv.slice(2).filter((a) => !a.startsWith('-'))
+  const unknown = asked.filter((a) => !(SECTIONS as readonly string[]).includes(a))
+  if (unknown.length) throw new Error(`Unknown bench section ${unknown.join(', ')}; choose from ${SECTIONS.join(', ')}`)
+  return new Set((asked.length ? asked : SECTIONS) as Section[])
+}
+
 async function main(): Promise<void> {
+  const sections = chosenSections()
+  const runStart = performance.now()
   const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'rungsBench-'))
   let server: Server | undefined
   let rungs: Running | undefined
+  let child: RungsProcess | undefined
   let browser: Awaited<ReturnType<typeof freshContext>> | undefined
+  const closers: (() => Promise<void>)[] = []
   const cleanUp = async () => {
+    if (child) await child.kill9().catch(() => undefined)
+    for (const close of closers) await close().catch(() => undefined)
     await browser?.close().catch(() => undefined)
     await rungs?.close().catch(() => undefined)
     server?.closeAllConnections()
@@ -228,44 +246,63 @@ async function main(): Promise<void> {
   const onSignal = () => void cleanUp().finally(() => process.exit(130))
   process.once('SIGINT', onSignal)
   process.once('SIGTERM', onSignal)
+  const track = (p: RungsProcess | undefined) => (child = p)
   try {
-    const outDir = path.join(tmp, 'dist')
-    const buildStart = performance.now()
-    await buildPage(outDir)
-    const buildMs = performance.now() - buildStart
-    server = await serve(outDir)
-    const origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+    if (sections.has('storage') || sections.has('summary') || sections.has('outbox')) {
+      const outDir = path.join(tmp, 'dist')
+      const buildStart = performance.now()
+      await buildPage(outDir)
+      const buildMs = performance.now() - buildStart
+      server = await serve(outDir)
+      const origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
 
-    browser = await freshContext({ width: 800, height: 600 })
-    // Loopback only: anything else the page or browser asks for is refused.
-    // The Rungs server's origin joins the list once it is listening.
-    const allowed = [origin + '/']
-    await browser.context.route('**/*', (route) => (allowed.some((o) => route.request().url().startsWith(o)) ? route.continue() : route.abort()))
-    const page = await browser.context.newPage()
-    page.on('pageerror', (e) => console.error(`page error: ${e.message}`))
-    page.on('console', (m) => m.type() === 'error' && console.error(`page console: ${m.text()}`))
-    await page.goto(origin + '/')
-    const results = await withDeadline(
-      page.evaluate(() => (globalThis as unknown as { runBench(): Promise<BenchResults> }).runBench()),
-      'The bench page',
-    )
-    console.log(report(results, buildMs))
-    const summaryPage = await browser.context.newPage()
-    summaryPage.on('pageerror', (e) => console.error(`summary page error: ${e.message}`))
-    await summaryPage.goto(origin + '/summary.html')
-    const summary = await withDeadline(
-      summaryPage.evaluate(() => (globalThis as unknown as { runSummaryBench(): Promise<SummaryBenchResults> }).runSummaryBench()),
-      'The summary bench page',
-      90_000,
-    )
-    await summaryPage.close()
-    console.log(summaryReport(summary))
-    console.log(
-      await benchOutbox(browser.context, outDir, tmp, (r) => {
-        rungs = r
-        allowed.push(`http://127.0.0.1:${(r.server.address() as AddressInfo).port}/`)
-      }),
-    )
+      browser = await freshContext({ width: 800, height: 600 })
+      // Loopback only: anything else the page or browser asks for is refused.
+      // The Rungs server's origin joins the list once it is listening.
+      const allowed = [origin + '/']
+      await browser.context.route('**/*', (route) => (allowed.some((o) => route.request().url().startsWith(o)) ? route.continue() : route.abort()))
+      if (sections.has('storage')) {
+        const page = await browser.context.newPage()
+        page.on('pageerror', (e) => console.error(`page error: ${e.message}`))
+        page.on('console', (m) => m.type() === 'error' && console.error(`page console: ${m.text()}`))
+        await page.goto(origin + '/')
+        const results = await withDeadline(
+          page.evaluate(() => (globalThis as unknown as { runBench(): Promise<BenchResults> }).runBench()),
+          'The bench page',
+        )
+        await page.close()
+        console.log(report(results, buildMs))
+      }
+      if (sections.has('summary')) {
+        const summaryPage = await browser.context.newPage()
+        summaryPage.on('pageerror', (e) => console.error(`summary page error: ${e.message}`))
+        await summaryPage.goto(origin + '/summary.html')
+        const summary = await withDeadline(
+          summaryPage.evaluate(() => (globalThis as unknown as { runSummaryBench(): Promise<SummaryBenchResults> }).runSummaryBench()),
+          'The summary bench page',
+          90_000,
+        )
+        await summaryPage.close()
+        console.log(summaryReport(summary))
+      }
+      if (sections.has('outbox')) {
+        console.log(
+          await benchOutbox(browser.context, outDir, tmp, (r) => {
+            rungs = r
+            allowed.push(`http://127.0.0.1:${(r.server.address() as AddressInfo).port}/`)
+          }),
+        )
+        await rungs?.close()
+        rungs = undefined
+      }
+      await browser.close()
+      browser = undefined
+    }
+    if (sections.has('pages')) console.log(await withDeadline(benchPages(tmp, (close) => closers.push(close)), 'The first-route and LCP bench', 240_000))
+    if (sections.has('caseload')) console.log(await withDeadline(benchCaseload(tmp, track, (close) => closers.push(close)), 'The caseload bench', 120_000))
+    if (sections.has('load')) console.log(await withDeadline(benchLoad(tmp, track), 'The load bench', 150_000))
+    if (sections.has('fault')) console.log(await withDeadline(benchFault(tmp, track), 'The fault bench', 150_000))
+    console.log(`Bench finished in ${((performance.now() - runStart) / 1000).toFixed(0)} s (sections: ${[...sections].join(', ')})`)
   } finally {
     await cleanUp()
     process.off('SIGINT', onSignal)

@@ -6,7 +6,6 @@ import type { AppDeps } from '../../deps'
 import type { PrepNote } from '../../db/models/PrepNote'
 import { HttpError } from '../../middleware/HttpError'
 import { clock, linkOfTherapist } from '../links/linkAccess'
-import { lastSessionOf } from '../links/links.service'
 import { caseloadMeasures } from '../measures/measures.service'
 
 type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'now'>
@@ -17,36 +16,55 @@ const live = { withdrawnAt: null, payload: { [Op.ne]: null } }
 /**
  * One row per active link of this therapist: who, when they last shared, how many copies arrived since the last session
  * (the latest past appointment, else the link's start), how many are marked to discuss, the next appointment and whether
- * any live copy carries a risk flag, plus the latest PHQ-9 and GAD-7 with change since the first (two queries for the
- * whole caseload; those summaries write their own access-log rows).
+ * any live copy carries a risk flag, plus the latest PHQ-9 and GAD-7 with change since the first. A fixed number of
+ * queries for the whole caseload, however many people are on it; the measure summaries write their own access-log rows.
  */
 export async function caseload(deps: Deps, therapistId: string): Promise<CaseloadRow[]> {
-  const links = await deps.models.Link.findAll({ where: { therapistId, state: 'active' }, include: [{ model: deps.models.User, as: 'person' }], order: [['startedAt', 'ASC']] })
+  const links = await deps.models.Link.findAll({
+    where: { therapistId, state: 'active' },
+    include: [{ model: deps.models.User, as: 'person', attributes: ['id', 'displayName'] }],
+    order: [['startedAt', 'ASC']],
+  })
+  if (!links.length) return []
   const now = clock(deps)
-  const measures = await caseloadMeasures(deps, therapistId, links)
-  return Promise.all(
-    links.map(async (link) => {
-      const [shares, lastSession, next] = await Promise.all([
-        deps.models.SharedEntry.findAll({ where: { linkId: link.id, ...live }, attributes: ['sharedAt', 'toDiscuss', 'riskFlag'] }),
-        lastSessionOf(deps, link),
-        deps.models.Appointment.findOne({ where: { linkId: link.id, at: { [Op.gt]: now } }, order: [['at', 'ASC']] }),
-      ])
-      const since = lastSession ?? link.startedAt
-      const lastShared = shares.reduce<Date | null>((max, s) => (s.sharedAt && (!max || s.sharedAt > max) ? s.sharedAt : max), null)
-      return {
-        linkId: link.id,
-        person: { displayName: link.person!.displayName },
-        startedAt: iso(link.startedAt),
-        lastSessionAt: iso(lastSession),
-        lastSharedAt: iso(lastShared),
-        newSinceLastSession: shares.filter((s) => s.sharedAt && (!since || s.sharedAt > since)).length,
-        toDiscussCount: shares.filter((s) => s.toDiscuss).length,
-        nextAppointment: iso(next?.at),
-        riskFlag: shares.some((s) => s.riskFlag),
-        measures: measures.get(link.id) ?? { phq9: null, gad7: null },
-      }
-    }),
-  )
+  const ids = links.map((l) => l.id)
+  const [measures, shares, appointments] = await Promise.all([
+    caseloadMeasures(deps, therapistId, links),
+    deps.models.SharedEntry.findAll({ where: { linkId: { [Op.in]: ids }, ...live }, attributes: ['linkId', 'sharedAt', 'toDiscuss', 'riskFlag'] }),
+    deps.models.Appointment.findAll({ where: { linkId: { [Op.in]: ids } }, attributes: ['linkId', 'at'] }),
+  ])
+  const sharesOf = new Map<string, typeof shares>(ids.map((id) => [id, []]))
+  for (const s of shares) sharesOf.get(s.linkId)!.push(s)
+  // The same rules as lastSessionOf (the latest appointment at or before now) and the next one strictly after now.
+  const lastOf = new Map<string, Date>()
+  const nextOf = new Map<string, Date>()
+  for (const { linkId, at } of appointments) {
+    if (at <= now) {
+      const last = lastOf.get(linkId)
+      if (!last || at > last) lastOf.set(linkId, at)
+    } else {
+      const next = nextOf.get(linkId)
+      if (!next || at < next) nextOf.set(linkId, at)
+    }
+  }
+  return links.map((link) => {
+    const mine = sharesOf.get(link.id)!
+    const lastSession = lastOf.get(link.id) ?? null
+    const since = lastSession ?? link.startedAt
+    const lastShared = mine.reduce<Date | null>((max, s) => (s.sharedAt && (!max || s.sharedAt > max) ? s.sharedAt : max), null)
+    return {
+      linkId: link.id,
+      person: { displayName: link.person!.displayName },
+      startedAt: iso(link.startedAt),
+      lastSessionAt: iso(lastSession),
+      lastSharedAt: iso(lastShared),
+      newSinceLastSession: mine.filter((s) => s.sharedAt && (!since || s.sharedAt > since)).length,
+      toDiscussCount: mine.filter((s) => s.toDiscuss).length,
+      nextAppointment: iso(nextOf.get(link.id)),
+      riskFlag: mine.some((s) => s.riskFlag),
+      measures: measures.get(link.id) ?? { phq9: null, gad7: null },
+    }
+  })
 }
 
 /**

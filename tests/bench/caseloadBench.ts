@@ -1,0 +1,91 @@
+// GET /api/therapist/caseload with 200 people on it, under autocannon at 50 connections, beside a bare Express route.
+import { spawn } from 'node:child_process'
+import fs from 'node:fs'
+import path from 'node:path'
+import autocannon from 'autocannon'
+import { BenchClient } from './benchClient'
+import { group, ms, row } from './benchFormat'
+import { percentile } from './benchResults'
+import { seedBench, THERAPIST } from './benchSeed'
+import { readSqlite } from './benchSqlite'
+import { freePort, repoRoot, startRungsProcess, type RungsProcess } from './rungsProcess'
+
+const PEOPLE = 200
+const CONNECTIONS = 50
+const SECONDS = 10
+// One at a time first, so the cost of a single request is seen apart from queueing.
+const SEQUENTIAL = 10
+const RATIO_BUDGET = 0.25
+const P99_BUDGET_MS = 50
+
+async function startBare(port: number): Promise<{ stop(): Promise<void> }> {
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join('tests', 'bench', 'bareJsonServer.ts')], { cwd: repoRoot, stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, PORT: String(port) } })
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()))
+  await new Promise<void>((resolve, reject) => {
+    child.stdout!.setEncoding('utf8').on('data', (d: string) => d.includes('listening') && resolve())
+    void exited.then(() => reject(new Error('the bare JSON server exited before it listened')))
+  })
+  return {
+    async stop() {
+      child.kill('SIGTERM')
+      await exited
+    },
+  }
+}
+
+function cannon(url: string, headers: Record<string, string> = {}): Promise<autocannon.Result> {
+  // A slow answer is counted, not dropped: autocannon's own timeout is 10 s.
+  return autocannon({ url, connections: CONNECTIONS, duration: SECONDS, headers, timeout: 60 })
+}
+
+export async function benchCaseload(tmp: string, track: (p: RungsProcess | undefined) => void, onClose: (close: () => Promise<void>) => void): Promise<string> {
+  const dataDir = path.join(tmp, 'caseloadData')
+  fs.mkdirSync(dataDir, { recursive: true })
+  await seedBench(dataDir, PEOPLE, { caseload: true })
+  const server = await startRungsProcess({ dataDir, port: await freePort() })
+  track(server)
+  const barePort = await freePort()
+  const bare = await startBare(barePort)
+  onClose(bare.stop)
+
+  const therapist = new BenchClient(server.origin)
+  await therapist.signIn(THERAPIST.email, THERAPIST.password)
+  const probe = await therapist.send('GET', '/api/therapist/caseload')
+  const caseload = (probe.body.caseload ?? []) as { measures: { phq9: unknown; gad7: unknown } }[]
+  const withMeasures = caseload.filter((r) => r.measures.phq9 && r.measures.gad7).length
+  const bodyBytes = Buffer.byteLength(JSON.stringify(probe.body))
+  const alone: number[] = []
+  for (let i = 0; i < SEQUENTIAL; i++) alone.push((await therapist.send('GET', '/api/therapist/caseload')).ms)
+
+  // Bare first, then the caseload: each gets the machine to itself while it runs.
+  const bareRun = await cannon(`http://127.0.0.1:${barePort}/bare`)
+  const caseRun = await cannon(`${server.origin}/api/therapist/caseload`, { cookie: therapist.sessionCookie, accept: 'application/json' })
+  await bare.stop()
+  await server.stop()
+  track(undefined)
+  const { auditPerRequest } = await afterRun(dataDir, 1 + SEQUENTIAL + caseRun.requests.sent)
+
+  const ratio = caseRun.requests.average / bareRun.requests.average
+  const non2xx = (r: autocannon.Result) => r.non2xx + r.errors + r.timeouts
+  return [
+    `Caseload API: GET /api/therapist/caseload, ${PEOPLE} people on it (${withMeasures} with PHQ-9 and GAD-7 columns, ${group(bodyBytes)} bytes of JSON), autocannon ${CONNECTIONS} connections × ${SECONDS} s`,
+    row('Bare Express JSON route, same machine, own process (requests/s; p50 / p99)', `${group(bareRun.requests.average)}/s`, `   ${bareRun.latency.p50} / ${bareRun.latency.p99} ms`),
+    row(`Caseload, one request at a time (median / max of ${SEQUENTIAL})`, `${ms(percentile(alone, 50))} ms`, `   max ${ms(Math.max(...alone))} ms`),
+    row('Caseload (requests/s; p50 / p99)', `${group(caseRun.requests.average)}/s`, `   ${caseRun.latency.p50} / ${caseRun.latency.p99} ms   ${group(caseRun.requests.total)} requests, ${non2xx(caseRun)} not 2xx`),
+    row('Caseload throughput as a ratio to the bare route', ratio.toFixed(3), `   budget ≥ ${RATIO_BUDGET}${ratio < RATIO_BUDGET ? '   MISSES BUDGET' : ''}`),
+    row('Caseload p99 latency', `${ms(caseRun.latency.p99)} ms`, `   budget ≤ ${P99_BUDGET_MS} ms${caseRun.latency.p99 > P99_BUDGET_MS ? '   MISSES BUDGET' : ''}`),
+    row("  shares.read access-log rows written per caseload request", auditPerRequest === undefined ? 'n/a' : auditPerRequest.toFixed(1)),
+    ...(probe.status !== 200 ? [`  the caseload answered ${probe.status}: ${JSON.stringify(probe.body).slice(0, 200)}`] : []),
+    '',
+  ].join('\n')
+}
+
+/** Read from the database file once the server has stopped. */
+async function afterRun(dataDir: string, requests: number) {
+  let audit = 0
+  await readSqlite<Record<string, number>>(path.join(dataDir, 'rungs.sqlite'), async (all) => {
+    audit = (await all("SELECT COUNT(*) AS n FROM audit_events WHERE action = 'shares.read'"))[0]!.n!
+  })
+  // Every request sent wrote its rows, including those still in flight when autocannon stopped counting.
+  return { auditPerRequest: requests ? audit / requests : undefined }
+}

@@ -1,0 +1,201 @@
+// The first route as a person meets it: bytes of JS and CSS it loads, and its largest contentful paint on a throttled
+// phone, cold and then warm from the service worker. Built with the real vite config.
+import fs from 'node:fs'
+import type { Server } from 'node:http'
+import type { AddressInfo } from 'node:net'
+import path from 'node:path'
+import zlib from 'node:zlib'
+import express from 'express'
+import type { BrowserContext, Page } from 'playwright-core'
+import { build } from 'vite'
+import { freshContext } from '../helpers/chromium'
+import { kb, ms, row } from './benchFormat'
+import { percentile } from './benchResults'
+import { repoRoot } from './rungsProcess'
+
+const SIZE_BUDGET_BYTES = 150 * 1024
+const COLD_BUDGET_MS = 1_500
+const WARM_BUDGET_MS = 500
+const RUNS = 3
+// Lighthouse throttling defaults for mobile "slow 4G", from memory: 150 ms RTT, 1.6 Mbps down, 750 kbps up, 4× CPU.
+const SLOW_4G = { offline: false, latency: 150, downloadThroughput: (1.6 * 1024 * 1024) / 8, uploadThroughput: (750 * 1024) / 8 }
+const CPU_SLOWDOWN = 4
+
+async function buildApp(outDir: string): Promise<void> {
+  await build({
+    configFile: path.join(repoRoot, 'vite.config.ts'),
+    root: path.join(repoRoot, 'client'),
+    logLevel: 'warn',
+    cacheDir: path.join(outDir, '..', 'appViteCache'),
+    build: { outDir, emptyOutDir: true, reportCompressedSize: false },
+  })
+}
+
+/**
+ * Serves the build the way the Rungs server does (hashed assets immutable, everything else re-checked, the shell for any
+ * other path), optionally gzip-compressed (level 9) as a compressing proxy in front of it would.
+ */
+function serveBuild(dir: string, gzip: boolean): Promise<Server> {
+  const app = express()
+  const cache = new Map<string, Buffer>()
+  app.use((req, res) => {
+    const wanted = path.normalize(decodeURIComponent(req.path)).replace(/^(\.\.[/\\])+/, '')
+    let file = path.join(dir, wanted)
+    if (!file.startsWith(dir) || !fs.existsSync(file) || fs.statSync(file).isDirectory()) file = path.join(dir, 'index.html')
+    res.setHeader('Cache-Control', file.includes(`${path.sep}assets${path.sep}`) ? 'public, max-age=31536000, immutable' : 'no-cache')
+    res.type(path.extname(file) || 'html')
+    const body = fs.readFileSync(file)
+    if (gzip && /\.(js|css|html|svg|webmanifest|json)$/.test(file)) {
+      if (!cache.has(file)) cache.set(file, zlib.gzipSync(body, { level: 9 }))
+      res.setHeader('Content-Encoding', 'gzip')
+      res.setHeader('Vary', 'Accept-Encoding')
+      res.end(cache.get(file))
+    } else res.end(body)
+  })
+  return new Promise((resolve, reject) => {
+    const server = app.listen(0, '127.0.0.1', (err?: Error) => (err ? reject(err) : resolve(server)))
+  })
+}
+
+interface Loaded {
+  url: string
+  /** Asked for after the page's load event (work moved off the first render, fetched when the page is idle). */
+  afterLoad: boolean
+  gzipBytes: number
+  rawBytes: number
+}
+
+/** Every JS and CSS file the page itself loads for `/` before the network goes quiet (the service worker's own fetches are not the page's). */
+async function firstRouteFiles(origin: string): Promise<{ files: Loaded[]; sw: Loaded[] }> {
+  const browser = await freshContext()
+  try {
+    const page = await browser.context.newPage()
+    const pending: Promise<Loaded | undefined>[] = []
+    let loaded = false
+    page.once('load', () => (loaded = true))
+    page.on('response', (res) => {
+      const afterLoad = loaded
+      const type = res.request().resourceType()
+      if (type !== 'script' && type !== 'stylesheet' && !/\.(js|css)(\?|$)/.test(res.url())) return
+      pending.push(
+        res.body().then(
+          (body) => ({ url: new URL(res.url()).pathname, afterLoad, rawBytes: body.length, gzipBytes: zlib.gzipSync(body, { level: 9 }).length }),
+          () => undefined,
+        ),
+      )
+    })
+    await page.goto(origin + '/', { waitUntil: 'networkidle' })
+    await page.waitForTimeout(500)
+    const all = (await Promise.all(pending)).filter((f): f is Loaded => !!f)
+    const isSw = (f: Loaded) => /^\/(sw|workbox-[\w-]+)\.js$/.test(f.url)
+    return { files: all.filter((f) => !isSw(f)), sw: all.filter(isSw) }
+  } finally {
+    await browser.close()
+  }
+}
+
+interface Lcp {
+  ms: number
+  element: string
+  controlled: boolean
+}
+
+const OBSERVE_LCP = `
+  window.__lcp = { ms: 0, element: '' };
+  new PerformanceObserver((list) => {
+    for (const e of list.getEntries()) {
+      const el = e.element;
+      window.__lcp = { ms: e.startTime, element: el ? el.tagName.toLowerCase() + (el.id ? '#' + el.id : '') + (el.className && typeof el.className === 'string' ? '.' + el.className.trim().split(/\\s+/).slice(0, 2).join('.') : '') + ' "' + (el.textContent || '').trim().slice(0, 40) + '"' : '' };
+    }
+  }).observe({ type: 'largest-contentful-paint', buffered: true });
+`
+
+async function throttle(context: BrowserContext, page: Page): Promise<void> {
+  const cdp = await context.newCDPSession(page)
+  await cdp.send('Network.enable')
+  await cdp.send('Network.emulateNetworkConditions', SLOW_4G)
+  await cdp.send('Emulation.setCPUThrottlingRate', { rate: CPU_SLOWDOWN })
+}
+
+async function readLcp(page: Page): Promise<Lcp> {
+  // LCP can still move while the page renders; a quiet network plus a second of calm is taken as settled.
+  await page.waitForLoadState('networkidle')
+  await page.waitForTimeout(1_000)
+  return page.evaluate(() => {
+    const w = window as unknown as { __lcp: { ms: number; element: string } }
+    return { ...w.__lcp, controlled: !!navigator.serviceWorker?.controller }
+  })
+}
+
+/** One fresh profile: a cold load, then, once the service worker is active, a warm reload with the same throttling. */
+async function lcpRun(origin: string): Promise<{ cold: Lcp; warm: Lcp }> {
+  const browser = await freshContext()
+  try {
+    await browser.context.addInitScript(OBSERVE_LCP)
+    const page = await browser.context.newPage()
+    await throttle(browser.context, page)
+    await page.goto(origin + '/', { waitUntil: 'load' })
+    const cold = await readLcp(page)
+    // Precaching runs in the worker, which the page's emulation does not slow; it must finish before the warm load.
+    await page.evaluate(async () => {
+      await navigator.serviceWorker.ready
+    })
+    const warmPage = await browser.context.newPage()
+    await throttle(browser.context, warmPage)
+    await page.close()
+    await warmPage.goto(origin + '/', { waitUntil: 'load' })
+    const warm = await readLcp(warmPage)
+    return { cold, warm }
+  } finally {
+    await browser.close()
+  }
+}
+
+const median = (xs: number[]) => percentile(xs, 50)
+
+export async function benchPages(tmp: string, onClose: (close: () => Promise<void>) => void): Promise<string> {
+  const outDir = path.join(tmp, 'appDist')
+  const buildStart = performance.now()
+  await buildApp(outDir)
+  const buildMs = performance.now() - buildStart
+  const gz = await serveBuild(outDir, true)
+  const plain = await serveBuild(outDir, false)
+  for (const s of [gz, plain]) onClose(() => new Promise<void>((resolve) => {
+    s.closeAllConnections()
+    s.close(() => resolve())
+  }))
+  const origin = (s: Server) => `http://127.0.0.1:${(s.address() as AddressInfo).port}`
+
+  const { files, sw } = await firstRouteFiles(origin(gz))
+  const total = files.reduce((n, f) => n + f.gzipBytes, 0)
+  const raw = files.reduce((n, f) => n + f.rawBytes, 0)
+  const biggest = [...files].sort((a, b) => b.gzipBytes - a.gzipBytes)
+
+  const runs: { cold: Lcp; warm: Lcp }[] = []
+  for (let i = 0; i < RUNS; i++) runs.push(await lcpRun(origin(gz)))
+  const plainRuns: Lcp[] = []
+  for (let i = 0; i < RUNS; i++) plainRuns.push((await lcpRun(origin(plain))).cold)
+  const cold = median(runs.map((r) => r.cold.ms))
+  const warm = median(runs.map((r) => r.warm.ms))
+  const coldPlain = median(plainRuns.map((r) => r.ms))
+  const list = (xs: number[]) => xs.map((x) => ms(x)).join(', ')
+  const lastCold = runs[runs.length - 1]!.cold
+  const lastWarm = runs[runs.length - 1]!.warm
+  return [
+    `First route (/) of the real build (vite.config.ts, built in ${ms(buildMs)} ms), fresh Chromium profile, 390×844`,
+    row(`JS + CSS the page loads for / (${files.length} files, gzip level 9 of each body)`, kb(total), `   ${kb(raw)} uncompressed   budget ≤ ${kb(SIZE_BUDGET_BYTES)}${total > SIZE_BUDGET_BYTES ? '   MISSES BUDGET' : ''}`),
+    row('  of which asked for before the load event / after it (idle-time loads)', `${kb(files.filter((f) => !f.afterLoad).reduce((n, f) => n + f.gzipBytes, 0))} / ${kb(files.filter((f) => f.afterLoad).reduce((n, f) => n + f.gzipBytes, 0))}`),
+    ...biggest.slice(0, 8).map((f) => row(`  ${f.url}${f.afterLoad ? ' (after load)' : ''}`, kb(f.gzipBytes), `   ${kb(f.rawBytes)} uncompressed`)),
+    ...(files.length > 8 ? [row(`  ${files.length - 8} more files`, kb(biggest.slice(8).reduce((n, f) => n + f.gzipBytes, 0)))] : []),
+    row('  then the service worker script (sw.js + workbox, not counted)', kb(sw.reduce((n, f) => n + f.gzipBytes, 0))),
+    '',
+    `Largest contentful paint, ${CPU_SLOWDOWN}× CPU throttle, slow 4G (150 ms RTT, 1.6 Mbps down, 750 kbps up; Lighthouse defaults, from memory); median of ${RUNS}`,
+    row('LCP, cold load (fresh profile; served gzip-compressed)', `${ms(cold)} ms`, `   runs ${list(runs.map((r) => r.cold.ms))}   budget ≤ ${ms(COLD_BUDGET_MS)} ms${cold > COLD_BUDGET_MS ? '   MISSES BUDGET' : ''}`),
+    row('  largest element (last run)', lastCold.element.slice(0, 60)),
+    row('LCP, warm load from the service worker', `${ms(warm)} ms`, `   runs ${list(runs.map((r) => r.warm.ms))}   budget ≤ ${WARM_BUDGET_MS} ms${warm > WARM_BUDGET_MS ? '   MISSES BUDGET' : ''}`),
+    row('  controlled by the service worker in every warm run', runs.every((r) => r.warm.controlled) ? 'yes' : 'no'),
+    row('  largest element (last run)', lastWarm.element.slice(0, 60)),
+    row('LCP, cold load served uncompressed (as the Rungs server itself serves, no compressing proxy)', `${ms(coldPlain)} ms`, `   runs ${list(plainRuns.map((r) => r.ms))}`),
+    '',
+  ].join('\n')
+}
