@@ -1,5 +1,6 @@
 import type { AddressInfo } from 'node:net'
-import http, { type Server } from 'node:http'
+import http, { STATUS_CODES, type Server } from 'node:http'
+import type { Duplex } from 'node:stream'
 import { createApp } from './app'
 import type { Config } from './config/env'
 import { initModels } from './db/associations'
@@ -19,6 +20,28 @@ export interface Running {
   close(options?: { graceMs?: number }): Promise<void>
 }
 
+/**
+ * Requests Node's HTTP parser refuses before Express sees them (a URL or headers over 16 kB, broken framing) get the
+ * one error shape too, instead of a bare status line.
+ */
+export function answerClientErrors(server: Server): void {
+  server.on('clientError', (err: NodeJS.ErrnoException, socket: Duplex) => {
+    if (err.code === 'ECONNRESET' || !socket.writable) {
+      socket.destroy()
+      return
+    }
+    const status = err.code === 'HPE_HEADER_OVERFLOW' ? 431 : err.code === 'ERR_HTTP_REQUEST_TIMEOUT' ? 408 : 400
+    const error = status === 431
+      ? { code: 'too_large', message: 'The address or headers of that request are too large.' }
+      : { code: 'bad_request', message: 'The request could not be read.' }
+    const body = JSON.stringify({ error })
+    socket.end(
+      `HTTP/1.1 ${status} ${STATUS_CODES[status]}\r\nContent-Type: application/json; charset=utf-8\r\n` +
+        `Content-Length: ${Buffer.byteLength(body)}\r\nConnection: close\r\n\r\n${body}`,
+    )
+  })
+}
+
 /** Opens and migrates the database, seeds the demo when empty, starts mail, and listens. */
 export async function startServer(config: Readonly<Config>, log: Logger = createLogger({ level: config.logLevel })): Promise<Running> {
   const sequelize = await openDatabase(config.databaseFile)
@@ -35,6 +58,7 @@ export async function startServer(config: Readonly<Config>, log: Logger = create
 
   // Listen first, so that with PORT=0 the links in e-mails can name the port actually chosen.
   const server = http.createServer()
+  answerClientErrors(server)
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject)
     server.listen(config.port, config.host, () => resolve())
