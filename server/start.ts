@@ -69,13 +69,17 @@ export async function startServer(config: Readonly<Config>, log: Logger = create
 
   const deps: AppDeps = { config: finalConfig, sequelize, models, mailer, fakeSmtp, log }
   const app = createApp(deps)
+  let closing: Promise<void> | undefined
+  // Once closing, a request that still arrives on an open keep-alive socket is answered and that socket then closed.
+  server.on('request', (_req, res) => {
+    if (closing) res.setHeader('Connection', 'close')
+  })
   server.on('request', app)
 
-  let closing: Promise<void> | undefined
   const close = ({ graceMs = 10_000 } = {}) =>
     (closing ??= (async () => {
       // No new connections from here; requests in flight finish. Idle keep-alive sockets are closed now, and busy ones
-      // as soon as their response is sent (Node adds Connection: close once the server is closing).
+      // as soon as their response is sent (the Connection: close set above).
       await new Promise<void>((resolve) => {
         const force = setTimeout(() => {
           log.warn(`shutdown: requests still open after ${graceMs} ms, closing their connections`)
