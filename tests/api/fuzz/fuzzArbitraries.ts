@@ -15,9 +15,12 @@ export const nastyString: fc.Arbitrary<string> = fc.oneof(
   { weight: 1, arbitrary: fc.uuid() },
   { weight: 1, arbitrary: fc.emailAddress() },
   { weight: 1, arbitrary: fc.date({ noInvalidDate: true }).map((d) => d.toISOString()) },
-  // Up to ~100 kB of one character, some of them several UTF-8 bytes each.
-  { weight: 1, arbitrary: fc.tuple(fc.constantFrom('x', 'é', '😀', '\u200B', '\uD800'), fc.integer({ min: 1_000, max: 100_000 })).map(([c, n]) => c.repeat(n / c.length)) },
 )
+
+/** Up to ~100 kB of one character, some of them several UTF-8 bytes each; kept out of nastyString so bodies stay mostly small. */
+export const hugeString: fc.Arbitrary<string> = fc
+  .tuple(fc.constantFrom('x', 'é', '😀', '\u200B', '\uD800', 'ab\u202E'), fc.integer({ min: 1_000, max: 100_000 }))
+  .map(([c, n]) => c.repeat(Math.ceil(n / c.length)))
 
 const nastyNumber = fc.oneof(
   fc.integer(),
@@ -31,7 +34,7 @@ export const fuzzKey = fc.oneof(
   { weight: 2, arbitrary: fc.constantFrom(...pollutionKeys) },
   { weight: 2, arbitrary: fc.constantFrom('id', 'email', 'password', 'version', 'payload', 'text', 'code', 'at', 'role', 'read', 'toDiscuss', 'kind', 'body', 'disabled', 'checks', 'note') },
   { weight: 2, arbitrary: fc.string({ maxLength: 12 }) },
-  { weight: 1, arbitrary: nastyString.filter((s) => s.length < 300) },
+  { weight: 1, arbitrary: nastyString },
 )
 
 /** Any JSON-ish value, with own `__proto__`/`constructor` keys possible at every depth. */
@@ -53,8 +56,9 @@ type Mutation = (o: Record<string, unknown>) => unknown
 const mutation: fc.Arbitrary<Mutation> = fc.oneof(
   // Drop a field.
   fc.nat().map((n): Mutation => (o) => { const keys = Object.keys(o); if (keys.length) delete o[keys[n % keys.length]!]; return o }),
-  // Give a field a wrong value (wrong type, huge, unicode).
+  // Give a field a wrong value (wrong type, unicode) or a huge string.
   fc.tuple(fc.nat(), fuzzValue).map(([n, v]): Mutation => (o) => { const keys = Object.keys(o); if (keys.length) o[keys[n % keys.length]!] = v; return o }),
+  fc.tuple(fc.nat(), hugeString).map(([n, v]): Mutation => (o) => { const keys = Object.keys(o); o[keys.length ? keys[n % keys.length]! : 'text'] = v; return o }),
   // Add a key, prototype keys included, nested.
   fc.tuple(fuzzKey, fuzzValue).map(([k, v]): Mutation => (o) => Object.assign(o, Object.fromEntries([[k, v]]))),
   fc.constant<Mutation>((o) => Object.assign(o, Object.fromEntries([['__proto__', { polluted: 'yes', isAdmin: true }], ['constructor', { prototype: { polluted: 'yes' } }]]))),
@@ -82,13 +86,14 @@ const malformedJson = fc.constantFrom(
 export function fuzzBody(templates: object[]): fc.Arbitrary<FuzzBody> {
   const template = templates.length ? fc.constantFrom(...templates) : fc.constant({})
   return fc.oneof(
-    { weight: 5, arbitrary: fc.tuple(template, fc.array(mutation, { minLength: 0, maxLength: 3 })).map(([t, ms]) => ({ kind: 'json' as const, text: JSON.stringify(ms.reduce<unknown>((o, m) => (o && typeof o === 'object' && !Array.isArray(o) ? m(o as Record<string, unknown>) : o), deepCopy(t))) })) },
-    { weight: 3, arbitrary: fuzzValue.map((v) => ({ kind: 'json' as const, text: JSON.stringify(v) ?? 'null' })) },
-    { weight: 1, arbitrary: malformedJson.map((text) => ({ kind: 'raw' as const, text, contentType: 'application/json' })) },
-    { weight: 1, arbitrary: fc.integer({ min: 300_000, max: 600_000 }).map((n) => ({ kind: 'raw' as const, text: JSON.stringify({ text: 'y'.repeat(n) }), contentType: 'application/json' })) },
-    { weight: 1, arbitrary: fc.constantFrom('application/json; charset=utf-16', 'text/plain', 'application/x-www-form-urlencoded', 'application/xml').chain((contentType) => nastyString.map((text) => ({ kind: 'raw' as const, text, contentType }))) },
-    { weight: 1, arbitrary: fc.oneof(nastyString, fc.constantFrom('date,measure,total\n2026-08-03,PHQ-9,17\n', 'date,measure,total\n2026-13-45,PHQ-9,999\n', 'a,b\n"unterminated', '=cmd|/c calc,1,2\n')).map((text) => ({ kind: 'multipart' as const, text })) },
-    { weight: 1, arbitrary: fc.constant({ kind: 'none' as const }) },
+    { weight: 10, arbitrary: fc.tuple(template, fc.array(mutation, { minLength: 0, maxLength: 3 })).map(([t, ms]) => ({ kind: 'json' as const, text: JSON.stringify(ms.reduce<unknown>((o, m) => (o && typeof o === 'object' && !Array.isArray(o) ? m(o as Record<string, unknown>) : o), deepCopy(t))) })) },
+    { weight: 6, arbitrary: fuzzValue.map((v) => ({ kind: 'json' as const, text: JSON.stringify(v) ?? 'null' })) },
+    { weight: 2, arbitrary: malformedJson.map((text) => ({ kind: 'raw' as const, text, contentType: 'application/json' })) },
+    // Just over the 256 kB JSON limit.
+    { weight: 1, arbitrary: fc.integer({ min: 262_200, max: 300_000 }).map((n) => ({ kind: 'raw' as const, text: JSON.stringify({ text: 'y'.repeat(n) }), contentType: 'application/json' })) },
+    { weight: 2, arbitrary: fc.constantFrom('application/json; charset=utf-16', 'text/plain', 'application/x-www-form-urlencoded', 'application/xml').chain((contentType) => nastyString.map((text) => ({ kind: 'raw' as const, text, contentType }))) },
+    { weight: 2, arbitrary: fc.oneof(nastyString, fc.constantFrom('date,measure,total\n2026-08-03,PHQ-9,17\n', 'date,measure,total\n2026-13-45,PHQ-9,999\n', 'a,b\n"unterminated', '=cmd|/c calc,1,2\n')).map((text) => ({ kind: 'multipart' as const, text })) },
+    { weight: 2, arbitrary: fc.constant({ kind: 'none' as const }) },
   )
 }
 
@@ -96,7 +101,7 @@ export function fuzzBody(templates: object[]): fc.Arbitrary<FuzzBody> {
 export const fuzzQuery: fc.Arbitrary<[string, string][]> = fc.array(
   fc.tuple(
     fc.oneof(fuzzKey, fc.constantFrom('version', 'format', 'from', 'to', 'q', 'limit', 'a[b]', '__proto__[x]', 'constructor[prototype][x]', 'version[]')),
-    fc.oneof(nastyString.filter((s) => s.length < 2_000), fc.constantFrom('1', '-1', '0', '1.5', '99999999999999999999', '')),
+    fc.oneof(nastyString, hugeString.map((s) => s.slice(0, 2_000)), fc.constantFrom('1', '-1', '0', '1.5', '99999999999999999999', '')),
   ),
   { maxLength: 4 },
 )
@@ -106,7 +111,8 @@ export function fuzzId(real: string[]): fc.Arbitrary<string> {
   return fc.oneof(
     { weight: 4, arbitrary: real.length ? fc.constantFrom(...real) : fc.uuid() },
     { weight: 2, arbitrary: fc.uuid() },
-    { weight: 3, arbitrary: nastyString.filter((s) => s.length > 0 && s.length < 3_000) },
+    { weight: 3, arbitrary: nastyString.filter((s) => s.length > 0) },
+    { weight: 1, arbitrary: hugeString.map((s) => s.slice(0, 3_000)) },
     { weight: 1, arbitrary: fc.integer().map(String) },
   )
 }
