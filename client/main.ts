@@ -1,3 +1,5 @@
+// First, before any module that builds a zod schema (see boot/zodConfig.ts).
+import './boot/zodConfig'
 import '@fontsource/lora/latin-400.css'
 import '@fontsource/lora/latin-600.css'
 import '@quasar/extras/material-icons/material-icons.css'

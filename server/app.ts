@@ -6,6 +6,7 @@ import helmet from 'helmet'
 import { createSessionMiddleware } from './auth/session'
 import { createPassport } from './auth/passport'
 import type { AppDeps } from './deps'
+import { httpLogger } from './log/logger'
 import { errorHandler } from './middleware/errorHandler'
 import { notFound } from './middleware/notFound'
 import { adminRoutes } from './modules/admin/admin.routes'
@@ -19,6 +20,9 @@ import { prepRoutes } from './modules/prep/prep.routes'
 import { privacyRoutes } from './modules/privacy/privacy.routes'
 import { sharesRoutes } from './modules/shares/shares.routes'
 import { therapistRoutes } from './modules/therapist/therapist.routes'
+
+/** HSTS for a year, sent only when the request arrived over TLS (`req.secure`, through a trusted proxy too). */
+const HSTS = 'max-age=31536000; includeSubDomains'
 
 function securityHeaders(https: boolean): RequestHandler[] {
   return [
@@ -43,23 +47,17 @@ function securityHeaders(https: boolean): RequestHandler[] {
           ...(https ? { upgradeInsecureRequests: [] } : {}),
         },
       },
-      strictTransportSecurity: https ? { maxAge: 31536000, includeSubDomains: true } : false,
+      // Set below per request, so a TLS-terminating proxy (TRUST_PROXY + X-Forwarded-Proto) gets it too.
+      strictTransportSecurity: false,
       referrerPolicy: { policy: 'no-referrer' },
     }),
-    (_req, res, next) => {
+    (req, res, next) => {
       res.setHeader('Permissions-Policy', 'camera=(), microphone=(), geolocation=(), payment=(), usb=()')
+      // Never over plain http: browsers ignore it there, and a local http setup must stay reachable.
+      if (https || req.secure) res.setHeader('Strict-Transport-Security', HSTS)
       next()
     },
   ]
-}
-
-function requestLog(log: AppDeps['log']): RequestHandler {
-  return (req, res, next) => {
-    const start = process.hrtime.bigint()
-    // The path only: query strings and bodies may hold tokens or journal text.
-    res.on('finish', () => log(`${req.method} ${req.originalUrl.split("?")[0]} ${res.statusCode} ${Number(process.hrtime.bigint() - start) / 1e6}ms`))
-    next()
-  }
 }
 
 /** Builds the Express app without listening, so tests can drive it with Supertest. */
@@ -69,7 +67,8 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
   app.disable('x-powered-by')
   app.set('trust proxy', config.trustProxy ? 1 : false)
   app.use(securityHeaders(config.appUrl.startsWith('https:')))
-  if (config.logRequests) app.use(requestLog(deps.log))
+  // Every request gets an id (X-Request-Id) and req.log; LOG_REQUESTS decides whether each one is also logged.
+  app.use(httpLogger(deps.log, config.logRequests))
 
   const session = createSessionMiddleware(config, deps.sequelize)
   const passport = createPassport(deps.models, config.scryptCost)
@@ -114,6 +113,7 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
       res.sendFile(path.join(clientDir, 'index.html'))
     })
   }
+  app.use(notFound)
   app.use(errorHandler(deps.log))
   return Object.assign(app, { stop: session.stop })
 }

@@ -1,5 +1,6 @@
 import type { AddressInfo } from 'node:net'
-import http, { type Server } from 'node:http'
+import http, { STATUS_CODES, type Server } from 'node:http'
+import type { Duplex } from 'node:stream'
 import { createApp } from './app'
 import type { Config } from './config/env'
 import { initModels } from './db/associations'
@@ -7,6 +8,7 @@ import { migrate } from './db/migrations'
 import { seedDemoIfEmpty } from './db/seed'
 import { openDatabase } from './db/sequelize'
 import type { AppDeps } from './deps'
+import { createLogger, type Logger } from './log/logger'
 import { startFakeSmtp } from './mail/fakeSmtp'
 import { createMailer } from './mail/transport'
 
@@ -14,25 +16,49 @@ export interface Running {
   url: string
   server: Server
   deps: AppDeps
-  close(): Promise<void>
+  /** Stops taking connections, lets open requests finish (up to `graceMs`), then closes mail and the database. */
+  close(options?: { graceMs?: number }): Promise<void>
+}
+
+/**
+ * Requests Node's HTTP parser refuses before Express sees them (a URL or headers over 16 kB, broken framing) get the
+ * one error shape too, instead of a bare status line.
+ */
+export function answerClientErrors(server: Server): void {
+  server.on('clientError', (err: NodeJS.ErrnoException, socket: Duplex) => {
+    if (err.code === 'ECONNRESET' || !socket.writable) {
+      socket.destroy()
+      return
+    }
+    const status = err.code === 'HPE_HEADER_OVERFLOW' ? 431 : err.code === 'ERR_HTTP_REQUEST_TIMEOUT' ? 408 : 400
+    const error = status === 431
+      ? { code: 'too_large', message: 'The address or headers of that request are too large.' }
+      : { code: 'bad_request', message: 'The request could not be read.' }
+    const body = JSON.stringify({ error })
+    socket.end(
+      `HTTP/1.1 ${status} ${STATUS_CODES[status]}\r\nContent-Type: application/json; charset=utf-8\r\n` +
+        `Content-Length: ${Buffer.byteLength(body)}\r\nConnection: close\r\n\r\n${body}`,
+    )
+  })
 }
 
 /** Opens and migrates the database, seeds the demo when empty, starts mail, and listens. */
-export async function startServer(config: Readonly<Config>, log: (line: string) => void = console.log): Promise<Running> {
+export async function startServer(config: Readonly<Config>, log: Logger = createLogger({ level: config.logLevel })): Promise<Running> {
   const sequelize = await openDatabase(config.databaseFile)
   const applied = await migrate(sequelize)
-  if (applied.length) log(`database: applied ${applied.join(', ')}`)
+  if (applied.length) log.info(`database: applied ${applied.join(', ')}`)
   const models = initModels(sequelize)
-  if (config.seedDemo && (await seedDemoIfEmpty(models, config.scryptCost))) log('database: seeded the demo accounts (see README)')
+  if (config.seedDemo && (await seedDemoIfEmpty(models, config.scryptCost))) log.info('database: seeded the demo accounts (see README)')
 
   const fakeSmtp = config.smtpUrl
     ? undefined
     : await startFakeSmtp({ port: config.fakeSmtpPort, env: config.env, allowInProduction: config.allowFakeSmtpInProduction })
-  if (fakeSmtp) log(`mail: local fake SMTP on 127.0.0.1:${fakeSmtp.port}; read it on the admin "Sent mail" page`)
+  if (fakeSmtp) log.info(`mail: local fake SMTP on 127.0.0.1:${fakeSmtp.port}; read it on the admin "Sent mail" page`)
   const mailer = createMailer({ smtpUrl: config.smtpUrl, fakePort: fakeSmtp?.port, from: config.mailFrom })
 
   // Listen first, so that with PORT=0 the links in e-mails can name the port actually chosen.
   const server = http.createServer()
+  answerClientErrors(server)
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject)
     server.listen(config.port, config.host, () => resolve())
@@ -43,19 +69,34 @@ export async function startServer(config: Readonly<Config>, log: (line: string) 
 
   const deps: AppDeps = { config: finalConfig, sequelize, models, mailer, fakeSmtp, log }
   const app = createApp(deps)
+  let closing: Promise<void> | undefined
+  // Once closing, a request that still arrives on an open keep-alive socket is answered and that socket then closed.
+  server.on('request', (_req, res) => {
+    if (closing) res.setHeader('Connection', 'close')
+  })
   server.on('request', app)
 
-  let closing: Promise<void> | undefined
-  const close = () =>
+  const close = ({ graceMs = 10_000 } = {}) =>
     (closing ??= (async () => {
-      // In-flight requests finish; idle keep-alive sockets are closed so shutdown does not hang.
+      // No new connections from here; requests in flight finish. Idle keep-alive sockets are closed now, and busy ones
+      // as soon as their response is sent (the Connection: close set above).
       await new Promise<void>((resolve) => {
-        server.close(() => resolve())
+        const force = setTimeout(() => {
+          log.warn(`shutdown: requests still open after ${graceMs} ms, closing their connections`)
+          server.closeAllConnections()
+        }, graceMs)
+        force.unref()
+        server.close(() => {
+          clearTimeout(force)
+          resolve()
+        })
         server.closeIdleConnections()
       })
       app.stop()
       mailer.close()
       await fakeSmtp?.close()
+      // Fold the WAL back into the database file, so the file alone is a complete copy once the process has gone.
+      await sequelize.query('PRAGMA wal_checkpoint(TRUNCATE);').catch((err: unknown) => log.warn({ err }, 'shutdown: WAL checkpoint failed'))
       await sequelize.close()
     })())
   return { url: `http://${host}:${port}`, server, deps, close }

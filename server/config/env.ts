@@ -27,6 +27,7 @@ const envSchema = z
     SIGNIN_LIMIT: z.coerce.number().int().min(1).default(10),
     RESET_LIMIT: z.coerce.number().int().min(1).default(5),
     LOG_REQUESTS: bool.optional(),
+    LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'use fatal, error, warn, info, debug, trace or silent' }).default('info'),
   })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV === 'production' && !env.SESSION_SECRET) {
@@ -55,6 +56,8 @@ export interface Config {
   signInLimit: number
   resetLimit: number
   logRequests: boolean
+  /** pino level for the server's log lines. */
+  logLevel: 'fatal' | 'error' | 'warn' | 'info' | 'debug' | 'trace' | 'silent'
   /** Folder with the built client; absent in API-only tests. */
   clientDir: string | undefined
 }
@@ -93,6 +96,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     signInLimit: e.SIGNIN_LIMIT,
     resetLimit: e.RESET_LIMIT,
     logRequests: e.LOG_REQUESTS ?? e.NODE_ENV === 'development',
+    logLevel: e.LOG_LEVEL,
     clientDir: path.resolve('dist'),
     ...overrides,
   })

@@ -1,12 +1,20 @@
 import type { ErrorRequestHandler } from 'express'
 import { UniqueConstraintError } from 'sequelize'
 import { ZodError } from 'zod'
+import type { Logger } from '../log/logger'
 import { HttpError } from './HttpError'
 
-/** Maps every thrown error to the one error shape. Unknown errors become 500 with the message hidden. */
-export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
+/**
+ * Maps every thrown error to the one error shape. Unknown errors become 500 with the message hidden: the stack, file
+ * paths and any SQL stay in the server's log, under the request id.
+ */
+export function errorHandler(log: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
-    if (res.headersSent) return
+    if (res.headersSent) {
+      ;(req.log ?? log).error({ err, method: req.method, path: req.path }, 'request failed after the response started')
+      if (!res.writableEnded) res.end()
+      return
+    }
     if (err instanceof HttpError) {
       res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) } })
       return
@@ -31,7 +39,7 @@ export function errorHandler(log: (line: string) => void): ErrorRequestHandler {
       res.status(status).json({ error: { code, message } })
       return
     }
-    log(`error ${req.method} ${req.path}: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`)
+    ;(req.log ?? log).error({ err, method: req.method, path: req.path }, 'request failed')
     res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on our side. Nothing you sent was lost; please try again.' } })
   }
 }

@@ -12,6 +12,7 @@ import { openDatabase } from '../../server/db/sequelize'
 import type { AppDeps } from '../../server/deps'
 import { startFakeSmtp } from '../../server/mail/fakeSmtp'
 import { createMailer } from '../../server/mail/transport'
+import { silentLogger } from '../../server/log/logger'
 import { agentWithCsrf } from '../helpers/testApp'
 
 const secret = 'a-production-session-secret-of-40-chars!'
@@ -63,7 +64,7 @@ describe('an app built for production', () => {
     const models = initModels(sequelize)
     await seedDemoIfEmpty(models, config.scryptCost)
     const mailer = createMailer({ smtpUrl: config.smtpUrl, from: config.mailFrom })
-    deps = { config, sequelize, models, mailer, log: () => {} }
+    deps = { config, sequelize, models, mailer, log: silentLogger() }
     app = createApp(deps)
   })
   afterAll(async () => {

@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { loadConfig } from '../../server/config/env'
 import { demoAccounts } from '../../server/db/seed'
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fakeSmtp'
+import { silentLogger } from '../../server/log/logger'
 import { startServer, type Running } from '../../server/start'
 
 // Stands in for an outside mail server: a real SMTP listener that Rungs only knows through SMTP_URL.
@@ -17,7 +18,7 @@ beforeAll(async () => {
   outside = await startFakeSmtp({ port: 0, env: 'test' })
   dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-smtpurl-'))
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, PORT: '0', SCRYPT_COST: '1024', SMTP_URL: `smtp://127.0.0.1:${outside.port}` })
-  running = await startServer(config, () => {})
+  running = await startServer(config, silentLogger())
 })
 afterAll(async () => {
   await running.close()

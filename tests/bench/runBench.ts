@@ -11,6 +11,7 @@ import express from 'express'
 import { build } from 'vite'
 import viteConfig from '../../vite.config'
 import { loadConfig } from '../../server/config/env'
+import { createLogger, type Logger } from '../../server/log/logger'
 import { startServer, type Running } from '../../server/start'
 import { freshContext } from '../helpers/chromium'
 import { group, misses, ms, row, trio } from './benchFormat'
@@ -119,7 +120,7 @@ function summaryReport(r: SummaryBenchResults): string {
 }
 
 /** What the server's own request log said about each share PUT (handler time, from the request to the response's end). */
-function serverLog(): { log: (line: string) => void; putMs: number[]; other: string[] } {
+function serverLog(): { log: Logger; putMs: number[]; other: string[] } {
   const putMs: number[] = []
   const other: string[] = []
   const log = (line: string) => {
@@ -127,7 +128,9 @@ function serverLog(): { log: (line: string) => void; putMs: number[]; other: str
     if (m) putMs.push(Number(m[2]))
     else if (!/^(GET|POST|PUT|DELETE) /.test(line)) other.push(line)
   }
-  return { log, putMs, other }
+  // pino writes one JSON object per line; its msg is "METHOD /path status Nms" for a request.
+  const destination = { write: (json: string) => log(String((JSON.parse(json) as { msg?: unknown }).msg ?? '')) }
+  return { log: createLogger({ level: 'info', destination }), putMs, other }
 }
 
 interface OutboxCheck {

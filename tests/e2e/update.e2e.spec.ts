@@ -3,6 +3,7 @@ import os from 'node:os'
 import path from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { loadConfig } from '../../server/config/env'
+import { silentLogger } from '../../server/log/logger'
 import { startServer, type Running } from '../../server/start'
 import { freshContext } from '../helpers/chromium'
 
@@ -17,7 +18,7 @@ beforeAll(async () => {
   fs.cpSync(path.resolve('dist'), clientDir, { recursive: true })
   dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-update-'))
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, PORT: '0', SCRYPT_COST: '1024' }, { clientDir })
-  running = await startServer(config, () => {})
+  running = await startServer(config, silentLogger())
 })
 afterAll(async () => {
   await running?.close()

@@ -3,6 +3,7 @@ import os from 'node:os'
 import path from 'node:path'
 import type { Page, Request } from 'playwright-core'
 import { loadConfig } from '../../server/config/env'
+import { silentLogger } from '../../server/log/logger'
 import { startServer, type Running } from '../../server/start'
 
 /** The real server on a free loopback port, serving the built client, with a fresh SQLite file and the demo seed. */
@@ -10,7 +11,7 @@ export async function startE2eServer(): Promise<Running & { dataDir: string }> {
   if (!fs.existsSync(path.resolve('dist/index.html'))) throw new Error('dist/ is missing: run `npm run build` first (npm test does).')
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-e2e-'))
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, PORT: '0', SCRYPT_COST: '1024', SEED_DEMO: 'true' })
-  const running = await startServer(config, () => {})
+  const running = await startServer(config, silentLogger())
   const close = running.close
   return {
     ...running,

@@ -9,6 +9,7 @@ import { migrate } from '../../server/db/migrations'
 import { seedDemoIfEmpty } from '../../server/db/seed'
 import { openDatabase } from '../../server/db/sequelize'
 import type { AppDeps } from '../../server/deps'
+import { createLogger, silentLogger, type Logger } from '../../server/log/logger'
 import { startFakeSmtp } from '../../server/mail/fakeSmtp'
 import { createMailer } from '../../server/mail/transport'
 
@@ -19,8 +20,14 @@ export interface TestApp {
   close(): Promise<void>
 }
 
-/** A fresh SQLite file, a real fake SMTP server on a free port, and the app, for one test file. */
-export async function makeTestApp(env: Record<string, string> = {}, overrides: Partial<Config> = {}): Promise<TestApp> {
+/** The test log: silent, or pino lines on stdout with TEST_LOG=1. */
+export const testLogger = (): Logger => (process.env.TEST_LOG ? createLogger({ level: 'debug' }) : silentLogger())
+
+/**
+ * A fresh SQLite file, a real fake SMTP server on a free port, and the app, for one test file. Pass `log` to read the
+ * server's log lines back (see tests/api/logs.api.spec.ts).
+ */
+export async function makeTestApp(env: Record<string, string> = {}, overrides: Partial<Config> = {}, options: { log?: Logger } = {}): Promise<TestApp> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-test-'))
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SCRYPT_COST: '1024', SEED_DEMO: 'true', APP_URL: 'http://localhost:3000', ...env }, { clientDir: undefined, ...overrides })
   const sequelize = await openDatabase(config.databaseFile)
@@ -29,7 +36,7 @@ export async function makeTestApp(env: Record<string, string> = {}, overrides: P
   if (config.seedDemo) await seedDemoIfEmpty(models, config.scryptCost)
   const fakeSmtp = await startFakeSmtp({ port: 0, env: config.env })
   const mailer = createMailer({ fakePort: fakeSmtp.port, from: config.mailFrom })
-  const deps = { config, sequelize, models, mailer, fakeSmtp, log: process.env.TEST_LOG ? (l: string) => console.log(l) : () => {} }
+  const deps = { config, sequelize, models, mailer, fakeSmtp, log: options.log ?? testLogger() }
   const app = createApp(deps)
   return {
     app,

@@ -13,7 +13,7 @@ type Deps = Pick<AppDeps, 'config' | 'models' | 'mailer' | 'log' | 'sequelize'>
  * account from one without. Failures are logged without the address.
  */
 function sendQuietly(deps: Deps, mail: OutgoingMail): void {
-  deps.mailer.send(mail).catch((err: Error) => deps.log(`mail: could not send "${mail.subject}": ${err.message}`))
+  deps.mailer.send(mail).catch((err: Error) => deps.log.warn({ err }, `mail: could not send "${mail.subject}"`))
 }
 
 /**

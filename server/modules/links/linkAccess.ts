@@ -48,7 +48,7 @@ export async function sendNotice(deps: Pick<AppDeps, 'mailer' | 'log'>, to: User
     await deps.mailer.send(mail)
     return true
   } catch (err) {
-    deps.log(`mail: a notice could not be sent (${err instanceof Error ? err.message : 'unknown error'})`)
+    deps.log.warn({ err }, 'mail: a notice could not be sent')
     return false
   }
 }

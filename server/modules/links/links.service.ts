@@ -34,7 +34,7 @@ export async function createInvitation(deps: Deps, therapist: User, email: strin
     try {
       await deps.mailer.send(invitationMail(email, therapist.displayName, displayInviteCode(code), deps.config.appUrl))
     } catch (err) {
-      deps.log(`mail: an invitation could not be sent (${err instanceof Error ? err.message : 'unknown error'})`)
+      deps.log.warn({ err }, 'mail: an invitation could not be sent')
     }
   }
   return { invitation: toInvitationRow(row), code: displayInviteCode(code) }
