@@ -167,7 +167,7 @@ export async function closeAccount(deps: Deps, user: User, password: string): Pr
     try {
       await deps.mailer.send(mail)
     } catch (err) {
-      deps.log(`mail: an account-closed notice could not be sent (${err instanceof Error ? err.message : 'unknown error'})`)
+      deps.log.warn({ err }, 'mail: an account-closed notice could not be sent')
     }
   }
 }
