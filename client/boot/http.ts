@@ -37,8 +37,8 @@ export function bootHttp(): void {
       position: 'bottom',
       attrs: { role: 'status', 'data-test': 'session-expired' },
       actions: [
-        { label: 'Not now', color: 'white', noCaps: true, flat: true },
-        { label: 'Sign in again', color: 'white', noCaps: true, outline: true, handler: signInAgain },
+        { label: 'Not now', color: 'white', noCaps: true, flat: true, padding: '10px 16px' },
+        { label: 'Sign in again', color: 'white', noCaps: true, outline: true, padding: '10px 16px', handler: signInAgain },
       ],
       onDismiss: () => { dismiss = undefined },
     })

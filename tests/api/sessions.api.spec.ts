@@ -158,7 +158,7 @@ describe('session writes', () => {
   it('writes the session row at most once a minute however many requests come in', async () => {
     const { user, a } = await signedIn()
     const writes: string[] = []
-    const options = t.deps.sequelize.options as { logging: unknown }
+    const options = (t.deps.sequelize as unknown as { options: { logging: unknown } }).options
     options.logging = (sql: string) => { if (/^Executing \(\w+\): (UPDATE|INSERT)[^;]*`sessions`/.test(sql)) writes.push(sql) }
     try {
       const row = async () => (await t.deps.models.Session.findOne({ where: { userId: user.id } }))!
