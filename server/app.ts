@@ -9,6 +9,7 @@ import type { AppDeps } from './deps'
 import { httpLogger } from './log/logger'
 import { errorHandler } from './middleware/errorHandler'
 import { notFound } from './middleware/notFound'
+import { sessionTimeouts } from './middleware/sessionTimeouts'
 import { adminRoutes } from './modules/admin/admin.routes'
 import { authRoutes } from './modules/auth/auth.routes'
 import { linksRoutes } from './modules/links/links.routes'
@@ -80,6 +81,8 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
   api.use(session.middleware)
   api.use(passport.initialize())
   api.use(passport.session())
+  // Before CSRF, so a timed-out session answers session_expired rather than csrf.
+  api.use(sessionTimeouts(deps))
   api.use(csrf.csrfSynchronisedProtection)
   api.use('/auth', authRoutes(deps, passport, csrf.generateToken))
   api.use('/me', meRoutes(deps))

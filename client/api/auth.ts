@@ -17,6 +17,12 @@ export async function signOut(): Promise<void> {
   setCsrfToken(res.csrfToken)
 }
 
+/** Ends every session of the account, this one included; the next request fetches a new CSRF token. */
+export async function signOutEverywhere(): Promise<void> {
+  await request('POST', '/api/auth/signout-everywhere', {}, messageSchema)
+  setCsrfToken(undefined)
+}
+
 export const signUp = (input: SignUp) => request('POST', '/api/auth/signup', input, messageSchema)
 export const verifyEmail = (token: string) => request('POST', '/api/auth/verify', { token }, messageSchema)
 export const resendVerification = () => request('POST', '/api/auth/verify/resend', {}, messageSchema)

@@ -14,10 +14,10 @@ export class ApiError extends Error {
 }
 
 let csrfToken: string | undefined
-let onUnauthenticated: (() => void) | undefined
+let onUnauthenticated: ((err: ApiError) => void) | undefined
 
-/** Called by boot/http.ts: one place decides what a 401 means for the app. */
-export function setUnauthenticatedHandler(handler: () => void): void {
+/** Called by boot/http.ts: one place decides what a 401 means for the app (the error says why, e.g. session_expired). */
+export function setUnauthenticatedHandler(handler: (err: ApiError) => void): void {
   onUnauthenticated = handler
 }
 
@@ -59,7 +59,8 @@ export async function request<T>(method: string, url: string, body?: unknown, sc
       csrfToken = undefined
       return request(method, url, body, schema, false)
     }
-    if (res.status === 401 && url !== '/api/me') onUnauthenticated?.()
+    // /api/me answers 401 to every signed-out device; only a timed-out session is news there.
+    if (res.status === 401 && (url !== '/api/me' || err.code === 'session_expired')) onUnauthenticated?.(err)
     throw err
   }
   return schema ? schema.parse(data) : (data as T)
@@ -78,10 +79,11 @@ export async function download(url: string, fallbackName: string): Promise<void>
   }
   if (!res.ok) {
     const parsed = apiErrorSchema.safeParse(await res.json().catch(() => undefined))
-    if (res.status === 401) onUnauthenticated?.()
-    throw parsed.success
+    const err = parsed.success
       ? new ApiError(res.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details)
       : new ApiError(res.status, 'unexpected', 'The server answered in a way Rungs did not expect. Please try again.')
+    if (res.status === 401) onUnauthenticated?.(err)
+    throw err
   }
   const name = /filename="?([^";]+)"?/.exec(res.headers.get('content-disposition') ?? '')?.[1] ?? fallbackName
   const href = URL.createObjectURL(await res.blob())

@@ -49,10 +49,10 @@ export const useLinksStore = defineStore('links', () => {
     paused.value = r.paused
   }
 
-  /** After sign-in: sending resumes with nothing lost. */
+  /** After sign-in: sending resumes with nothing lost, at once (waits from before the pause were guesses, as offline). */
   function resume(): void {
     paused.value = false
-    void kickOutbox()
+    void kickOutbox(true)
   }
 
   /** The person's retry for failed sends (all, or one entry's, or one entry over one link). */

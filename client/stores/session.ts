@@ -3,7 +3,7 @@ import { computed, ref, shallowRef } from 'vue'
 import type { SignIn } from '@shared/schemas/auth.schema'
 import type { Me } from '@shared/schemas/user.schema'
 import * as authApi from '@/api/auth'
-import { ApiError } from '@/api/http'
+import { ApiError, setCsrfToken } from '@/api/http'
 import { fetchMe, type MeResponse } from '@/api/me'
 import { readSetting, writeSetting } from '@/db/settingsRepository'
 
@@ -14,6 +14,8 @@ export const useSessionStore = defineStore('session', () => {
   const me = shallowRef<Me | null>(null)
   const features = shallowRef<MeResponse['features']>({ sentMail: false })
   const status = ref<Status>('unknown')
+  /** The server ended the session after the idle or absolute timeout; cleared by the next sign-in. */
+  const expired = ref(false)
   let loading: Promise<void> | undefined
 
   const role = computed(() => me.value?.role)
@@ -41,6 +43,7 @@ export const useSessionStore = defineStore('session', () => {
 
   async function signIn(input: SignIn): Promise<Me> {
     me.value = await authApi.signIn(input)
+    expired.value = false
     status.value = 'signedIn'
     await writeSetting('signedInBefore', true)
     await refresh()
@@ -53,11 +56,21 @@ export const useSessionStore = defineStore('session', () => {
     status.value = 'anonymous'
   }
 
-  /** Called when any request answers 401: the session ended on the server. */
-  function forget(): void {
+  /** Signs out on every device, this one included. The journal on this device stays. */
+  async function signOutEverywhere(): Promise<void> {
+    await authApi.signOutEverywhere()
     me.value = null
     status.value = 'anonymous'
   }
 
-  return { me, features, status, role, ready, refresh, signIn, signOut, forget }
+  /** Called when any request answers 401: the session ended on the server (`timedOut` after the idle or absolute limit). */
+  function forget(timedOut = false): void {
+    // The server's token went with the session; the next request fetches a new one.
+    if (timedOut) setCsrfToken(undefined)
+    if (timedOut && status.value !== 'anonymous') expired.value = true
+    me.value = null
+    status.value = 'anonymous'
+  }
+
+  return { me, features, status, expired, role, ready, refresh, signIn, signOut, signOutEverywhere, forget }
 })

@@ -8,6 +8,14 @@ import type { Config } from '../config/env'
 
 const SequelizeStore = SequelizeStoreInit(session.Store)
 
+declare module 'express-session' {
+  interface SessionData {
+    /** Epoch ms of sign-in and of the last recorded request (written at most once a minute): middleware/sessionTimeouts.ts */
+    signedInAt?: number
+    lastSeenAt?: number
+  }
+}
+
 /**
  * In development and tests a secret is made once and kept in the data folder, so restarts keep people signed in.
  * Production must pass SESSION_SECRET (the config refuses to start without it).
@@ -36,20 +44,25 @@ export function createSessionMiddleware(config: Readonly<Config>, sequelize: Seq
       userId: s.passport?.user ?? null,
     }),
   })
+  // express-session touches the store on every request it does not save (an UPDATE per request). The timeouts middleware
+  // instead changes the session at most once a minute, and that save renews the row's expiry.
+  store.touch = (_sid, _session, done) => done?.(null)
   const middleware = session({
     name: 'rungs.sid',
     secret: sessionSecret(config),
     store,
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    // The cookie is renewed only when the session is saved (at most once a minute, see sessionTimeouts.ts).
+    rolling: false,
     proxy: config.trustProxy,
     cookie: {
       httpOnly: true,
       sameSite: 'lax',
       // 'auto' marks the cookie Secure whenever the request arrived over TLS (directly or via a trusted proxy).
       secure: 'auto',
-      maxAge: 12 * 60 * 60 * 1000,
+      // The absolute timeout: the middleware also refuses an older session, with a message the person can act on.
+      maxAge: config.sessionAbsoluteMs,
     },
   })
   return { middleware, stop: () => store.stopExpiringSessions() }

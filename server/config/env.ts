@@ -26,6 +26,10 @@ const envSchema = z
     SCRYPT_COST: z.coerce.number().int().refine((n) => n >= 2 && (n & (n - 1)) === 0, 'must be a power of two').default(32768),
     SIGNIN_LIMIT: z.coerce.number().int().min(1).default(10),
     RESET_LIMIT: z.coerce.number().int().min(1).default(5),
+    SIGNIN_ACCOUNT_LIMIT: z.coerce.number().int().min(1).default(5),
+    // Decimals are allowed so the browser tests can time out in seconds (0.05 = 3 s).
+    SESSION_IDLE_MINUTES: z.coerce.number({ error: 'must be a number of minutes' }).positive().default(30),
+    SESSION_ABSOLUTE_HOURS: z.coerce.number({ error: 'must be a number of hours' }).positive().default(12),
     LOG_REQUESTS: bool.optional(),
     LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'use fatal, error, warn, info, debug, trace or silent' }).default('info'),
   })
@@ -55,6 +59,12 @@ export interface Config {
   scryptCost: number
   signInLimit: number
   resetLimit: number
+  /** Failed sign-ins per account (normalised e-mail) in 15 minutes, from any number of addresses. */
+  signInAccountLimit: number
+  /** A signed-in session ends after this long without a request (ASVS 4.0 3.3.2, level 2: 30 minutes; from memory). */
+  sessionIdleMs: number
+  /** and this long after sign-in, however busy (ASVS 4.0 3.3.2, level 2: 12 hours; from memory). */
+  sessionAbsoluteMs: number
   logRequests: boolean
   /** pino level for the server's log lines. */
   logLevel: 'fatal' | 'error' | 'warn' | 'info' | 'debug' | 'trace' | 'silent'
@@ -95,6 +105,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     scryptCost: e.SCRYPT_COST,
     signInLimit: e.SIGNIN_LIMIT,
     resetLimit: e.RESET_LIMIT,
+    signInAccountLimit: e.SIGNIN_ACCOUNT_LIMIT,
+    sessionIdleMs: Math.round(e.SESSION_IDLE_MINUTES * 60_000),
+    sessionAbsoluteMs: Math.round(e.SESSION_ABSOLUTE_HOURS * 3_600_000),
     logRequests: e.LOG_REQUESTS ?? e.NODE_ENV === 'development',
     logLevel: e.LOG_LEVEL,
     clientDir: path.resolve('dist'),

@@ -1,4 +1,5 @@
-import { rateLimit } from 'express-rate-limit'
+import { createHash } from 'node:crypto'
+import { rateLimit, type Store } from 'express-rate-limit'
 
 /**
  * A per-IP limit that answers in the one error shape. `skipSuccessfulRequests` counts only failures, so people
@@ -11,6 +12,31 @@ export function limitPerIp(limit: number, { windowMs = 15 * 60 * 1000, skipSucce
     skipSuccessfulRequests,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
+    handler: (_req, res) => {
+      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many attempts. Please wait a few minutes and try again.' } })
+    },
+  })
+}
+
+const accountKey = (email: string) => `account:${createHash('sha256').update(email).digest('hex')}`
+
+/**
+ * A limit per account, from any number of IPs: the key is the normalised e-mail address of the body (hashed, so a
+ * shared counter store never holds addresses). Only failures count. Made-up addresses are counted and answered
+ * exactly like real ones, so the limit tells nobody which addresses have an account. Pass `store` to share the
+ * counters between servers.
+ */
+export function limitPerAccount(limit: number, { windowMs = 15 * 60 * 1000, store }: { windowMs?: number; store?: Store } = {}) {
+  return rateLimit({
+    windowMs,
+    limit,
+    skipSuccessfulRequests: true,
+    ...(store ? { store } : {}),
+    keyGenerator: (req) => accountKey(String(req.body?.email ?? '').trim().toLowerCase()),
+    skip: (req) => typeof req.body?.email !== 'string',
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    // The same answer as limitPerIp's.
     handler: (_req, res) => {
       res.status(429).json({ error: { code: 'rate_limited', message: 'Too many attempts. Please wait a few minutes and try again.' } })
     },

@@ -7,11 +7,17 @@ export const emailSchema = z
   .max(254, 'That e-mail address is too long.')
   .pipe(z.email({ error: 'Enter a valid e-mail address.' }))
 
-// NIST SP 800-63B: at least 8 characters, no composition rules; a generous upper bound stops hashing abuse.
+/** Characters as a person counts them: Unicode code points, so an emoji is one, not two UTF-16 units. */
+export const codePointLength = (s: string) => [...s].length
+
+// NIST SP 800-63B 5.1.1.2: at least 8 characters, no composition rules; a generous upper bound stops hashing abuse.
+// The common-password and context checks run on the server only (server/auth/commonPasswords.ts), so the list
+// never lands in the client bundle.
 export const passwordSchema = z
   .string({ error: 'Enter a password.' })
-  .min(8, 'Use at least 8 characters.')
-  .max(256, 'Use at most 256 characters.')
+  .max(1024, 'Use at most 256 characters.')
+  .refine((s) => codePointLength(s) >= 8, 'Use at least 8 characters.')
+  .refine((s) => codePointLength(s) <= 256, 'Use at most 256 characters.')
 
 export const displayNameSchema = z
   .string({ error: 'Enter a name.' })

@@ -351,6 +351,16 @@ describe('settings that need an app of their own', () => {
       expect(await limited.deps.models.Session.count({ where: { userId: user!.id } })).toBe(0)
     })
 
+    it('answers a throttled sign-in for a made-up address exactly like one for a real account', async () => {
+      const a = await agentWithCsrf(limited.app)
+      const real = await a.signIn(person.email, person.password)
+      const madeUp = await a.signIn('auth-nobody-throttled@example.test', 'not the password')
+      expect(real.status).toBe(429)
+      expect(madeUp.status).toBe(429)
+      expect(madeUp.body).toEqual(real.body)
+      expect(await limited.deps.models.User.count({ where: { email: 'auth-nobody-throttled@example.test' } })).toBe(0)
+    })
+
     it('answers a reset request over RESET_LIMIT with 429 and issues no token for it', async () => {
       const a = await agentWithCsrf(limited.app)
       for (let i = 0; i < 2; i++) expect((await a.post('/api/auth/reset/request', { email: person.email })).status).toBe(202)

@@ -184,3 +184,49 @@ describe('IDOR attempts with real ids of someone else', () => {
     expect(res.status).toBe(400)
   })
 })
+
+// Sign out everywhere acts on the caller's own account, so each role gets an account of its own here: the shared
+// actors above keep their sessions.
+describe('POST /api/auth/signout-everywhere × every role', () => {
+  const sessionsOf = (userId: string) => t.deps.models.Session.count({ where: { userId } })
+  async function ownerSessionCounts() {
+    const link = await t.deps.models.Link.findByPk(ids.link)
+    return [await sessionsOf(link!.personId), await sessionsOf(link!.therapistId)]
+  }
+  async function freshAdmin() {
+    const admin = await makePerson(t, 'Ottoline Admin')
+    await admin.user.update({ role: 'admin' })
+    return admin
+  }
+  const accountFor: Record<string, () => Promise<{ user: { id: string }; email: string; password: string }>> = {
+    person: () => makePerson(t, 'Ferris'),
+    therapist: () => makeTherapist(t, 'Juno Marsh'),
+    unapproved: () => makeTherapist(t, 'Ada Unchecked', { approved: false }),
+    admin: freshAdmin,
+  }
+
+  it('anonymous → 401 and ends nobody\'s session', async () => {
+    const anonymous = await agentWithCsrf(t.app)
+    const before = await t.deps.models.Session.count()
+    const res = await call(anonymous, { name: 'sign out everywhere', method: 'post', url: () => '/api/auth/signout-everywhere', body: () => ({}) })
+    expect(res.status).toBe(401)
+    expect(res.body.error.code).toBe('unauthenticated')
+    expect(await t.deps.models.Session.count()).toBe(before)
+  })
+
+  for (const role of Object.keys(accountFor)) {
+    it(`${role} → 200, ends only their own sessions`, async () => {
+      const account = await accountFor[role]!()
+      const a = await signedInAs(t, account)
+      await signedInAs(t, account)
+      expect(await sessionsOf(account.user.id)).toBe(2)
+      const others = await ownerSessionCounts()
+      const res = await a.post('/api/auth/signout-everywhere')
+      expect(res.status).toBe(200)
+      expect(await sessionsOf(account.user.id)).toBe(0)
+      expect(await ownerSessionCounts()).toEqual(others)
+      expect((await actors.owner!.get('/api/me')).status).toBe(200)
+      await ownerStateUnchanged()
+    })
+  }
+})

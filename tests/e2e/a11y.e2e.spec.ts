@@ -38,7 +38,7 @@ describe.each(['light', 'dark'] as const)('accessibility in %s mode (axe-core)',
     await page.goto(server.url + '/therapist/settings')
     await page.locator('[data-test=approval-badge]').waitFor()
     found.push(...(await seriousViolations(page)).map((v) => `therapist: ${v}`))
-    await page.getByRole('button', { name: 'Sign out' }).click()
+    await page.getByRole('button', { name: 'Sign out', exact: true }).click()
     await page.waitForURL((u) => u.pathname === '/signin')
     await signInThroughForm(page, server.url, demoAccounts.admin.email, demoAccounts.admin.password)
     for (const path of ['/admin/approvals', '/admin/accounts', '/admin/mail']) {

@@ -16,7 +16,7 @@ describe('signing in, up and out in Chromium', () => {
     await page.goto(server.url + '/more')
     await page.getByText(`Signed in as ${demoAccounts.person.displayName}`).waitFor()
     expect(await page.getByText('Signing out does not hide the journal on this device.').isVisible()).toBe(true)
-    await page.getByRole('button', { name: 'Sign out' }).click()
+    await page.getByRole('button', { name: 'Sign out', exact: true }).click()
     await page.getByRole('link', { name: 'Sign in' }).waitFor()
     await close()
   })

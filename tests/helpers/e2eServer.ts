@@ -6,11 +6,14 @@ import { loadConfig } from '../../server/config/env'
 import { silentLogger } from '../../server/log/logger'
 import { startServer, type Running } from '../../server/start'
 
-/** The real server on a free loopback port, serving the built client, with a fresh SQLite file and the demo seed. */
-export async function startE2eServer(): Promise<Running & { dataDir: string }> {
+/**
+ * The real server on a free loopback port, serving the built client, with a fresh SQLite file and the demo seed.
+ * `env` adds settings, e.g. a tiny SESSION_IDLE_MINUTES.
+ */
+export async function startE2eServer(env: Record<string, string> = {}): Promise<Running & { dataDir: string }> {
   if (!fs.existsSync(path.resolve('dist/index.html'))) throw new Error('dist/ is missing: run `npm run build` first (npm test does).')
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-e2e-'))
-  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, PORT: '0', SCRYPT_COST: '1024', SEED_DEMO: 'true' })
+  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, PORT: '0', SCRYPT_COST: '1024', SEED_DEMO: 'true', ...env })
   const running = await startServer(config, silentLogger())
   const close = running.close
   return {

@@ -3,6 +3,7 @@ import type { createPassport } from '../../auth/passport'
 import type { User } from '../../db/models/User'
 import type { AppDeps } from '../../deps'
 import { HttpError } from '../../middleware/HttpError'
+import { markSignedIn } from '../../middleware/sessionTimeouts'
 import { presentMe } from '../me/presentMe'
 import * as auth from './auth.service'
 
@@ -18,6 +19,7 @@ export function authController(deps: AppDeps, passport: ReturnType<typeof create
       if (!user) return next(new HttpError(401, 'bad_credentials', 'That e-mail and password do not match. Check them, or reset your password.'))
       req.logIn(user, (loginErr) => {
         if (loginErr) return next(loginErr)
+        markSignedIn(req, deps)
         presentMe(deps.models, user)
           // The session was regenerated at sign-in, so the old CSRF token is gone: hand out the new one.
           .then((me) => res.json({ user: me, csrfToken: csrfToken(req, true) }))
@@ -30,6 +32,16 @@ export function authController(deps: AppDeps, passport: ReturnType<typeof create
     req.logout((err) => {
       if (err) return next(err)
       res.json({ csrfToken: csrfToken(req, true) })
+    })
+  }
+
+  // Every row goes, this one included; destroying the request's session stops express-session from saving it back.
+  const signOutEverywhere: RequestHandler = async (req, res, next) => {
+    await auth.signOutEverywhere(deps, req.user!.id)
+    req.session.destroy((err) => {
+      if (err) return next(err)
+      res.clearCookie('rungs.sid', { path: '/', httpOnly: true, sameSite: 'lax' })
+      res.json({ message: 'You are signed out on every device. The journal on this device stays here.' })
     })
   }
 
@@ -59,5 +71,6 @@ export function authController(deps: AppDeps, passport: ReturnType<typeof create
     }) satisfies RequestHandler,
     signIn,
     signOut,
+    signOutEverywhere,
   }
 }

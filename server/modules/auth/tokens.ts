@@ -23,3 +23,9 @@ export async function consumeToken(models: Models, token: string, purpose: Token
   const [changed] = await models.EmailToken.update({ usedAt: now }, { where: { id: row.id, usedAt: null } })
   return changed === 1 ? row.userId : undefined
 }
+
+/** The user id a token would sign for, without using it up: a reset can refuse a weak password and keep the link working. */
+export async function peekToken(models: Models, token: string, purpose: TokenPurpose, now = new Date()): Promise<string | undefined> {
+  const row = await models.EmailToken.findOne({ where: { tokenHash: sha256(token), purpose, usedAt: null, expiresAt: { [Op.gt]: now } } })
+  return row?.userId
+}
