@@ -1,7 +1,7 @@
 import type { AddressInfo } from 'node:net'
 import http, { type Server } from 'node:http'
 import { createApp } from './app'
-import type { Config } from './config/env'
+import { databaseTarget, type Config } from './config/env'
 import { initModels } from './db/associations'
 import { migrate } from './db/migrations'
 import { seedDemoIfEmpty } from './db/seed'
@@ -19,7 +19,7 @@ export interface Running {
 
 /** Opens and migrates the database, seeds the demo when empty, starts mail, and listens. */
 export async function startServer(config: Readonly<Config>, log: (line: string) => void = console.log): Promise<Running> {
-  const sequelize = await openDatabase(config.databaseFile)
+  const sequelize = await openDatabase(databaseTarget(config))
   const applied = await migrate(sequelize)
   if (applied.length) log(`database: applied ${applied.join(', ')}`)
   const models = initModels(sequelize)

@@ -6,6 +6,7 @@ import { EmailToken } from './models/EmailToken'
 import { Invitation } from './models/Invitation'
 import { Link } from './models/Link'
 import { PrepNote } from './models/PrepNote'
+import { RateLimitCounter } from './models/RateLimitCounter'
 import { Session } from './models/Session'
 import { SharedEntry } from './models/SharedEntry'
 import { TherapistProfile } from './models/TherapistProfile'
@@ -24,6 +25,7 @@ export function initModels(sequelize: Sequelize) {
   SharedEntry.initModel(sequelize)
   PrepNote.initModel(sequelize)
   EarlierScore.initModel(sequelize)
+  RateLimitCounter.initModel(sequelize)
 
   User.hasOne(TherapistProfile, { foreignKey: { name: 'userId', allowNull: false }, as: 'therapistProfile', onDelete: 'CASCADE' })
   TherapistProfile.belongsTo(User, { foreignKey: 'userId', as: 'user' })
@@ -44,6 +46,6 @@ export function initModels(sequelize: Sequelize) {
   EarlierScore.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
   EarlierScore.belongsTo(User, { foreignKey: 'enteredById', as: 'enteredBy' })
 
-  return { User, TherapistProfile, EmailToken, AuditEvent, Session, Invitation, Link, Appointment, SharedEntry, PrepNote, EarlierScore }
+  return { User, TherapistProfile, EmailToken, AuditEvent, Session, Invitation, Link, Appointment, SharedEntry, PrepNote, EarlierScore, RateLimitCounter }
 }
 export type Models = ReturnType<typeof initModels>

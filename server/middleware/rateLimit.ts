@@ -1,14 +1,32 @@
-import { rateLimit } from 'express-rate-limit'
+import { rateLimit, type Store } from 'express-rate-limit'
+import type { AppDeps } from '../deps'
+import { DatabaseRateLimitStore } from './DatabaseRateLimitStore'
+
+/**
+ * Counters in the database, named per limiter, so that every app instance on one database shares them. Each limiter
+ * needs its own store (express-rate-limit refuses to share one); the same name on two instances means the same counters.
+ */
+export function sharedCounters(deps: Pick<AppDeps, 'models'>, name: string): Store {
+  return new DatabaseRateLimitStore(deps.models.RateLimitCounter, name)
+}
+
+export interface LimitOptions {
+  /** Where the hits are counted: `sharedCounters(deps, name)`. */
+  store: Store
+  windowMs?: number
+  skipSuccessfulRequests?: boolean
+}
 
 /**
  * A per-IP limit that answers in the one error shape. `skipSuccessfulRequests` counts only failures, so people
  * sharing one address (a practice's Wi-Fi, a mobile carrier's NAT) do not lock each other out by signing in.
  */
-export function limitPerIp(limit: number, { windowMs = 15 * 60 * 1000, skipSuccessfulRequests = false } = {}) {
+export function limitPerIp(limit: number, { store, windowMs = 15 * 60 * 1000, skipSuccessfulRequests = false }: LimitOptions) {
   return rateLimit({
     windowMs,
     limit,
     skipSuccessfulRequests,
+    store,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: (_req, res) => {
