@@ -11,7 +11,7 @@ export class RateLimitCounter extends Model<InferAttributes<RateLimitCounter>, I
   declare resetAt: number
 
   static initModel(sequelize: Sequelize): void {
-    RateLimitCounter.init(
+    this.init(
       {
         key: { type: DataTypes.STRING(128), primaryKey: true },
         hits: { type: DataTypes.INTEGER, allowNull: false },
