@@ -2,9 +2,7 @@ import type { AddressInfo } from 'node:net'
 import http, { type Server } from 'node:http'
 import { createApp } from './app'
 import { databaseTarget, type Config } from './config/env'
-import { initModels } from './db/associations'
-import { migrate } from './db/migrations'
-import { seedDemoIfEmpty } from './db/seed'
+import { prepareDatabase } from './db/prepareDatabase'
 import { openDatabase } from './db/sequelize'
 import type { AppDeps } from './deps'
 import { startFakeSmtp } from './mail/fakeSmtp'
@@ -20,10 +18,9 @@ export interface Running {
 /** Opens and migrates the database, seeds the demo when empty, starts mail, and listens. */
 export async function startServer(config: Readonly<Config>, log: (line: string) => void = console.log): Promise<Running> {
   const sequelize = await openDatabase(databaseTarget(config))
-  const applied = await migrate(sequelize)
+  const { models, applied, seeded } = await prepareDatabase(sequelize, config)
   if (applied.length) log(`database: applied ${applied.join(', ')}`)
-  const models = initModels(sequelize)
-  if (config.seedDemo && (await seedDemoIfEmpty(models, config.scryptCost))) log('database: seeded the demo accounts (see README)')
+  if (seeded) log('database: seeded the demo accounts (see README)')
 
   const fakeSmtp = config.smtpUrl
     ? undefined

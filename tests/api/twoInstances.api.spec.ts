@@ -2,7 +2,15 @@ import { randomUUID } from 'node:crypto'
 import { Op } from 'sequelize'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { makeTestApp, type TestApp } from '../helpers/testApp'
+import fs from 'node:fs'
+import os from 'node:os'
+import path from 'node:path'
+import { databaseTarget, loadConfig } from '../../server/config/env'
+import { migrator } from '../../server/db/migrations'
+import { prepareDatabase } from '../../server/db/prepareDatabase'
+import { demoAccounts } from '../../server/db/seed'
+import { openDatabase } from '../../server/db/sequelize'
+import { freshDatabase, makeTestApp, type TestApp } from '../helpers/testApp'
 import { entryPayload, linkUp, makePerson, makeTherapist, put, signedInAs } from './linkFixtures'
 
 // Two app instances on one database, as behind a load balancer: a SQLite file normally, a PostgreSQL database when
@@ -109,5 +117,30 @@ describe('two instances on one database', () => {
     const row = await b.deps.models.SharedEntry.findOne({ where: { linkId, entryId: ids[0] } })
     expect(row!.version).toBe(3)
     expect(await b.deps.models.SharedEntry.count({ where: { linkId, entryId: ids[0] } })).toBe(1)
+  })
+})
+
+describe('two instances starting at once on an empty database', () => {
+  it('apply each migration once between them and seed the demo once', async () => {
+    const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-start-'))
+    const database = await freshDatabase(dataDir)
+    const target = databaseTarget(loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, DATABASE_URL: database.url }))
+    const [one, two] = await Promise.all([openDatabase(target), openDatabase(target)])
+    try {
+      const every = (await migrator(one).pending()).map((m) => m.name)
+      expect(every.length).toBeGreaterThan(0)
+      const opts = { seedDemo: true, scryptCost: 1024 }
+      const [first, second] = await Promise.all([prepareDatabase(one, opts), prepareDatabase(two, opts)])
+      expect([...first.applied, ...second.applied].sort()).toEqual([...every].sort())
+      expect([first.seeded, second.seeded].sort()).toEqual([false, true])
+      const [rows] = await one.query('SELECT name FROM schema_migrations')
+      expect(rows).toHaveLength(every.length)
+      expect(await first.models.User.count()).toBe(Object.keys(demoAccounts).length)
+    } finally {
+      await one.close()
+      await two.close()
+      await database.drop()
+      fs.rmSync(dataDir, { recursive: true, force: true })
+    }
   })
 })

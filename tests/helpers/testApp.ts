@@ -27,7 +27,7 @@ export interface TestApp {
  * A fresh database for one test file: a SQLite file in `dataDir`, or, when TEST_DATABASE_URL names a PostgreSQL server
  * (an account that may create databases), a new database there that `drop` removes.
  */
-async function freshDatabase(dataDir: string): Promise<{ url: string; drop(): Promise<void> }> {
+export async function freshDatabase(dataDir: string): Promise<{ url: string; drop(): Promise<void> }> {
   const admin = process.env.TEST_DATABASE_URL
   if (!admin) return { url: `sqlite:${path.join(dataDir, 'rungs.sqlite')}`, drop: async () => {} }
   const name = `rungs_t_${randomBytes(6).toString('hex')}`
