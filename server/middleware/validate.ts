@@ -8,6 +8,21 @@ interface Schemas {
   query?: ZodType
 }
 
+/**
+ * The path of the first string holding U+0000. PostgreSQL cannot store it in text (Sequelize would write a backslash and
+ * a zero instead), so it is refused on every database and the same text means the same thing on both.
+ */
+function nulPath(value: unknown, path: (string | number)[] = []): (string | number)[] | undefined {
+  if (typeof value === 'string') return value.includes('\u0000') ? path : undefined
+  if (value && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) {
+      const found = nulPath(v, [...path, Array.isArray(value) ? Number(k) : k])
+      if (found) return found
+    }
+  }
+  return undefined
+}
+
 /** Validates the parts of a request with shared zod schemas; parsed values replace the raw ones. */
 export function validate(schemas: Schemas): RequestHandler {
   return (req, _res, next) => {
@@ -18,6 +33,11 @@ export function validate(schemas: Schemas): RequestHandler {
       const result = schema.safeParse(req[part] ?? {})
       if (!result.success) {
         issues.push(...result.error.issues.map((i) => ({ ...i, path: [part, ...i.path] })))
+        continue
+      }
+      const nul = nulPath(result.data)
+      if (nul) {
+        issues.push({ code: 'custom', path: [part, ...nul], message: 'Text cannot contain the character U+0000.' })
         continue
       }
       // Express 5 exposes req.query through a getter; redefine it rather than assign.
