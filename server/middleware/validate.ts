@@ -10,12 +10,14 @@ interface Schemas {
 
 /**
  * The path of the first string holding U+0000. PostgreSQL cannot store it in text (Sequelize would write a backslash and
- * a zero instead), so it is refused on every database and the same text means the same thing on both.
+ * a zero instead), so it is refused on every database and the same text means the same thing on both. A shared entry's
+ * `payload` is exempt: it is stored as JSON text, where U+0000 is escaped, so an entry is never kept from sharing.
  */
 function nulPath(value: unknown, path: (string | number)[] = []): (string | number)[] | undefined {
   if (typeof value === 'string') return value.includes('\u0000') ? path : undefined
   if (value && typeof value === 'object') {
     for (const [k, v] of Object.entries(value)) {
+      if (path.length === 0 && k === 'payload') continue
       const found = nulPath(v, [...path, Array.isArray(value) ? Number(k) : k])
       if (found) return found
     }
