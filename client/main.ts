@@ -10,6 +10,7 @@ import { Dark, Dialog, Notify, Quasar } from 'quasar'
 import { createApp } from 'vue'
 import App from './App.vue'
 import { bootAppearance } from './boot/appearance'
+import { bootAppLock } from './boot/appLock'
 import { bootDeviceSettings } from './boot/deviceSettings'
 import { bootHttp } from './boot/http'
 import { bootJournal } from './boot/journal'
@@ -25,4 +26,5 @@ bootDeviceSettings()
 bootJournal()
 bootSync()
 app.use(router)
-app.mount('#app')
+// The lock is decided before the first paint; until then index.html's static Help now block stays on screen.
+void bootAppLock().finally(() => app.mount('#app'))

@@ -16,6 +16,7 @@ import { measuresRoutes } from './modules/measures/measures.routes'
 import { meRoutes } from './modules/me/me.routes'
 import { personRoutes } from './modules/person/person.routes'
 import { prepRoutes } from './modules/prep/prep.routes'
+import { privacyRoutes } from './modules/privacy/privacy.routes'
 import { sharesRoutes } from './modules/shares/shares.routes'
 import { therapistRoutes } from './modules/therapist/therapist.routes'
 
@@ -91,6 +92,7 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
   api.use(sharesRoutes(deps))
   api.use(prepRoutes(deps))
   api.use(measuresRoutes(deps))
+  api.use(privacyRoutes(deps))
   if (deps.fakeSmtp && config.env !== 'production') api.use('/admin/mail', sentMailRoutes(deps.fakeSmtp))
   api.use(notFound)
   app.use('/api', api)

@@ -3,6 +3,7 @@ import type { RegionCode } from '@shared/content/crisisLines'
 import type { Entry } from '@shared/schemas/entry.schema'
 import type { EarlierScoreView } from '@shared/schemas/measure.schema'
 import type { PersonLinkRow } from '@shared/schemas/link.schema'
+import type { LockIdleMinutes } from '@shared/schemas/appLock.schema'
 
 /** Settings kept on this device, one row per key. */
 export interface DeviceSettings {
@@ -20,6 +21,21 @@ export interface DeviceSettings {
   storagePersisted: boolean
   /** "Things I want to bring up" on the appointment summary, kept between visits. */
   summaryBringUp: string[]
+  /** The app lock, when turned on: a PBKDF2 hash of the passcode with its salt, never the passcode. */
+  appLock: AppLockRecord
+  /** Wrong passcodes in a row, so the growing wait survives a reload. */
+  appLockFailures: { count: number; lastAt: number }
+}
+
+export interface AppLockRecord {
+  /** PBKDF2-SHA-256 of the passcode, base64. */
+  hash: string
+  salt: string
+  iterations: number
+  /** Only digits: the lock screen offers a number pad. */
+  digits: boolean
+  idleMinutes: LockIdleMinutes
+  setAt: number
 }
 export type SettingKey = keyof DeviceSettings
 export interface SettingRow<K extends SettingKey = SettingKey> {

@@ -16,6 +16,7 @@ export const RouteName = {
   Summary: 'summary',
   Settings: 'settings',
   Backup: 'backup',
+  Privacy: 'privacy',
   Share: 'share',
   SignIn: 'signIn',
   SignUp: 'signUp',

@@ -28,6 +28,7 @@ export const routes: RouteRecordRaw[] = [
       { path: 'measures/:id', name: RouteName.MeasureEntry, component: () => import('@/pages/MeasureEntryPage.vue'), meta: { title: 'Questionnaire result' } },
       { path: 'more', name: RouteName.More, component: () => import('@/pages/MorePage.vue'), meta: { title: 'More' } },
       { path: 'more/settings', name: RouteName.Settings, component: () => import('@/pages/SettingsPage.vue'), meta: { title: 'Settings' } },
+      { path: 'more/privacy', name: RouteName.Privacy, component: () => import('@/pages/PrivacyPage.vue'), meta: { title: 'Your data' } },
       { path: 'more/backup', name: RouteName.Backup, component: () => import('@/pages/BackupPage.vue'), meta: { title: 'Backup' } },
       { path: 'more/share', name: RouteName.Share, component: () => import('@/pages/SharePage.vue'), meta: { title: 'Sharing' } },
       { path: 'more/safety-plan', name: RouteName.SafetyPlan, component: () => import('@/pages/SafetyPlanPage.vue'), meta: { title: 'Safety plan' } },

@@ -41,7 +41,8 @@ beforeAll(async () => {
 afterAll(async () => { await t.close() })
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
-interface RouteCase { name: string; method: Method; url: () => string; body?: () => object; self?: 'person' | 'therapist' }
+/** `self: 'account'` routes act on the caller's own account, so they have no one else's id to guess. */
+interface RouteCase { name: string; method: Method; url: () => string; body?: () => object; self?: 'person' | 'therapist' | 'account' }
 
 const L = () => ids.link
 const routes: RouteCase[] = [
@@ -73,6 +74,8 @@ const routes: RouteCase[] = [
   { name: 'list earlier scores', method: 'get', url: () => `/api/therapist/links/${L()}/earlier-scores` },
   { name: 'delete earlier score', method: 'delete', url: () => `/api/therapist/links/${L()}/earlier-scores/${ids.earlier}` },
   { name: 'person earlier scores', method: 'get', url: () => `/api/links/${L()}/earlier-scores` },
+  { name: 'download my account', method: 'get', url: () => '/api/me/export', self: 'account' },
+  { name: 'close my account', method: 'delete', url: () => '/api/me', body: () => ({ password: 'a-wrong-guess-at-it' }), self: 'account' },
 ]
 
 function call(a: Agent, r: RouteCase) {
@@ -89,6 +92,8 @@ const isPersonRoute = (r: RouteCase) =>
 /** What each outsider must get: 401 signed out, 403 for the wrong role, 404 for the right role on someone else's id. */
 function expected(actor: string, r: RouteCase): number[] {
   if (actor === 'anonymous') return [401]
+  // The person's own download works; closing needs the right password, and staff accounts are closed by an admin.
+  if (r.self === 'account') return actor === 'otherPerson' && r.method === 'get' ? [200] : [403]
   if (actor === 'admin') return [403]
   if (actor === 'unapproved') return isTherapistRoute(r) || isPersonRoute(r) ? [403] : [404]
   if (actor === 'otherPerson') {
@@ -126,7 +131,7 @@ describe('authorisation matrix: every new route × every outsider', () => {
           expect(expected(actor, r)).toContain(res.status)
           const body = JSON.stringify(res.body ?? '') + (res.text ?? '')
           for (const secret of [SECRET, NOTE_SECRET, OWNER_NAME, ids.note]) expect(body).not.toContain(secret)
-          if (res.status >= 400) expect(res.body.error.code).toMatch(/^(unauthenticated|forbidden|not_approved|not_found)$/)
+          if (res.status >= 400) expect(res.body.error.code).toMatch(/^(unauthenticated|forbidden|not_approved|not_found|wrong_password)$/)
           await ownerStateUnchanged()
         })
       }
