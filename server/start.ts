@@ -2,10 +2,8 @@ import type { AddressInfo } from 'node:net'
 import http, { STATUS_CODES, type Server } from 'node:http'
 import type { Duplex } from 'node:stream'
 import { createApp } from './app'
-import type { Config } from './config/env'
-import { initModels } from './db/associations'
-import { migrate } from './db/migrations'
-import { seedDemoIfEmpty } from './db/seed'
+import { databaseTarget, type Config } from './config/env'
+import { prepareDatabase } from './db/prepareDatabase'
 import { openDatabase } from './db/sequelize'
 import type { AppDeps } from './deps'
 import { createLogger, type Logger } from './log/logger'
@@ -44,11 +42,10 @@ export function answerClientErrors(server: Server): void {
 
 /** Opens and migrates the database, seeds the demo when empty, starts mail, and listens. */
 export async function startServer(config: Readonly<Config>, log: Logger = createLogger({ level: config.logLevel })): Promise<Running> {
-  const sequelize = await openDatabase(config.databaseFile)
-  const applied = await migrate(sequelize)
+  const sequelize = await openDatabase(databaseTarget(config))
+  const { models, applied, seeded } = await prepareDatabase(sequelize, config)
   if (applied.length) log.info(`database: applied ${applied.join(', ')}`)
-  const models = initModels(sequelize)
-  if (config.seedDemo && (await seedDemoIfEmpty(models, config.scryptCost))) log.info('database: seeded the demo accounts (see README)')
+  if (seeded) log.info('database: seeded the demo accounts (see README)')
 
   const fakeSmtp = config.smtpUrl
     ? undefined

@@ -1,18 +1,42 @@
-import type { Sequelize } from 'sequelize'
-import { Appointment } from './models/Appointment'
-import { AuditEvent } from './models/AuditEvent'
-import { EarlierScore } from './models/EarlierScore'
-import { EmailToken } from './models/EmailToken'
-import { Invitation } from './models/Invitation'
-import { Link } from './models/Link'
-import { PrepNote } from './models/PrepNote'
-import { Session } from './models/Session'
-import { SharedEntry } from './models/SharedEntry'
-import { TherapistProfile } from './models/TherapistProfile'
-import { User } from './models/User'
+import { Model, type Sequelize } from 'sequelize'
+import { Appointment as AppointmentBase } from './models/Appointment'
+import { AuditEvent as AuditEventBase } from './models/AuditEvent'
+import { EarlierScore as EarlierScoreBase } from './models/EarlierScore'
+import { EmailToken as EmailTokenBase } from './models/EmailToken'
+import { Invitation as InvitationBase } from './models/Invitation'
+import { Link as LinkBase } from './models/Link'
+import { PrepNote as PrepNoteBase } from './models/PrepNote'
+import { RateLimitCounter as RateLimitCounterBase } from './models/RateLimitCounter'
+import { Session as SessionBase } from './models/Session'
+import { SharedEntry as SharedEntryBase } from './models/SharedEntry'
+import { TherapistProfile as TherapistProfileBase } from './models/TherapistProfile'
+import { User as UserBase } from './models/User'
 
-/** Initialises every model and declares every association, in one place. */
+/**
+ * A subclass of the model for one Sequelize instance. Model classes are bound to the database they are initialised on,
+ * so two databases in one process (two app instances in a test) would otherwise take each other's models.
+ */
+function bound<M extends { name: string }>(base: M): M {
+  const Base = base as unknown as typeof Model
+  const named = { [base.name]: class extends Base {} }
+  return named[base.name] as unknown as M
+}
+
+/** Initialises every model (fresh classes for this database) and declares every association, in one place. */
 export function initModels(sequelize: Sequelize) {
+  const Appointment = bound(AppointmentBase)
+  const AuditEvent = bound(AuditEventBase)
+  const EarlierScore = bound(EarlierScoreBase)
+  const EmailToken = bound(EmailTokenBase)
+  const Invitation = bound(InvitationBase)
+  const Link = bound(LinkBase)
+  const PrepNote = bound(PrepNoteBase)
+  const RateLimitCounter = bound(RateLimitCounterBase)
+  const Session = bound(SessionBase)
+  const SharedEntry = bound(SharedEntryBase)
+  const TherapistProfile = bound(TherapistProfileBase)
+  const User = bound(UserBase)
+
   User.initModel(sequelize)
   TherapistProfile.initModel(sequelize)
   EmailToken.initModel(sequelize)
@@ -24,6 +48,7 @@ export function initModels(sequelize: Sequelize) {
   SharedEntry.initModel(sequelize)
   PrepNote.initModel(sequelize)
   EarlierScore.initModel(sequelize)
+  RateLimitCounter.initModel(sequelize)
 
   User.hasOne(TherapistProfile, { foreignKey: { name: 'userId', allowNull: false }, as: 'therapistProfile', onDelete: 'CASCADE' })
   TherapistProfile.belongsTo(User, { foreignKey: 'userId', as: 'user' })
@@ -44,6 +69,6 @@ export function initModels(sequelize: Sequelize) {
   EarlierScore.belongsTo(Link, { foreignKey: 'linkId', as: 'link' })
   EarlierScore.belongsTo(User, { foreignKey: 'enteredById', as: 'enteredBy' })
 
-  return { User, TherapistProfile, EmailToken, AuditEvent, Session, Invitation, Link, Appointment, SharedEntry, PrepNote, EarlierScore }
+  return { User, TherapistProfile, EmailToken, AuditEvent, Session, Invitation, Link, Appointment, SharedEntry, PrepNote, EarlierScore, RateLimitCounter }
 }
 export type Models = ReturnType<typeof initModels>

@@ -1,9 +1,11 @@
 import fs from 'node:fs'
 import os from 'node:os'
 import path from 'node:path'
+import { randomBytes } from 'node:crypto'
+import pg from 'pg'
 import supertest from 'supertest'
 import { createApp } from '../../server/app'
-import { loadConfig, type Config } from '../../server/config/env'
+import { databaseTarget, loadConfig, type Config } from '../../server/config/env'
 import { initModels } from '../../server/db/associations'
 import { migrate } from '../../server/db/migrations'
 import { seedDemoIfEmpty } from '../../server/db/seed'
@@ -17,6 +19,8 @@ export interface TestApp {
   app: ReturnType<typeof createApp>
   deps: AppDeps & { fakeSmtp: NonNullable<AppDeps['fakeSmtp']> }
   dataDir: string
+  /** DATABASE_URL of this app's database, for a second instance on the same one. */
+  databaseUrl: string
   close(): Promise<void>
 }
 
@@ -24,13 +28,39 @@ export interface TestApp {
 export const testLogger = (): Logger => (process.env.TEST_LOG ? createLogger({ level: 'debug' }) : silentLogger())
 
 /**
- * A fresh SQLite file, a real fake SMTP server on a free port, and the app, for one test file. Pass `log` to read the
- * server's log lines back (see tests/api/logs.api.spec.ts).
+ * A fresh database for one test file: a SQLite file in `dataDir`, or, when TEST_DATABASE_URL names a PostgreSQL server
+ * (an account that may create databases), a new database there that `drop` removes.
+ */
+export async function freshDatabase(dataDir: string): Promise<{ url: string; drop(): Promise<void> }> {
+  const admin = process.env.TEST_DATABASE_URL
+  if (!admin) return { url: `sqlite:${path.join(dataDir, 'rungs.sqlite')}`, drop: async () => {} }
+  const name = `rungs_t_${randomBytes(6).toString('hex')}`
+  const run = async (sql: string) => {
+    const client = new pg.Client({ connectionString: admin })
+    await client.connect()
+    try {
+      await client.query(sql)
+    } finally {
+      await client.end()
+    }
+  }
+  await run(`CREATE DATABASE ${name}`)
+  const url = new URL(admin)
+  url.pathname = `/${name}`
+  // FORCE (PostgreSQL 13+) ends connections a test left open.
+  return { url: url.toString(), drop: () => run(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`) }
+}
+
+/**
+ * A fresh database (SQLite, or PostgreSQL under TEST_DATABASE_URL), a real fake SMTP server on a free port, and the app,
+ * for one test file. Passing `env.DATABASE_URL` opens that database instead and leaves it in place on close. Pass `log`
+ * to read the server's log lines back (see tests/api/logs.api.spec.ts).
  */
 export async function makeTestApp(env: Record<string, string> = {}, overrides: Partial<Config> = {}, options: { log?: Logger } = {}): Promise<TestApp> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rungs-test-'))
-  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SCRYPT_COST: '1024', SEED_DEMO: 'true', APP_URL: 'http://localhost:3000', ...env }, { clientDir: undefined, ...overrides })
-  const sequelize = await openDatabase(config.databaseFile)
+  const database = env.DATABASE_URL ? { url: env.DATABASE_URL, drop: async () => {} } : await freshDatabase(dataDir)
+  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SCRYPT_COST: '1024', SEED_DEMO: 'true', APP_URL: 'http://localhost:3000', DATABASE_URL: database.url, ...env }, { clientDir: undefined, ...overrides })
+  const sequelize = await openDatabase(databaseTarget(config))
   await migrate(sequelize)
   const models = initModels(sequelize)
   if (config.seedDemo) await seedDemoIfEmpty(models, config.scryptCost)
@@ -42,11 +72,13 @@ export async function makeTestApp(env: Record<string, string> = {}, overrides: P
     app,
     deps,
     dataDir,
+    databaseUrl: database.url,
     async close() {
       app.stop()
       mailer.close()
       await fakeSmtp.close()
       await sequelize.close()
+      await database.drop()
       fs.rmSync(dataDir, { recursive: true, force: true })
     },
   }

@@ -25,8 +25,10 @@ export async function up({ context: qi }: { context: QueryInterface }): Promise<
   })
   await qi.addIndex('links', ['personId', 'state'])
   await qi.addIndex('links', ['therapistId', 'state'])
-  // At most one active link per pair, enforced by the database as well as by the service.
-  await qi.sequelize.query(`CREATE UNIQUE INDEX links_one_active_per_pair ON links (personId, therapistId) WHERE state = 'active'`)
+  // At most one active link per pair, enforced by the database as well as by the service. The column names are quoted:
+  // PostgreSQL folds unquoted names to lower case. (SQLite reads both spellings alike, so databases made before keep
+  // the same index.)
+  await qi.sequelize.query(`CREATE UNIQUE INDEX links_one_active_per_pair ON links ("personId", "therapistId") WHERE state = 'active'`)
   await qi.createTable('appointments', {
     id: { type: DataTypes.UUID, primaryKey: true },
     linkId: { type: DataTypes.UUID, allowNull: false, references: { model: 'links', key: 'id' }, onDelete: 'CASCADE' },

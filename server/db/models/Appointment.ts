@@ -8,7 +8,7 @@ export class Appointment extends Model<InferAttributes<Appointment>, InferCreati
   declare createdAt: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize): void {
-    Appointment.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         linkId: { type: DataTypes.UUID, allowNull: false },

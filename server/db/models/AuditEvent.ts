@@ -10,7 +10,7 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
   declare at: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize): void {
-    AuditEvent.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         actorId: { type: DataTypes.UUID, allowNull: true },

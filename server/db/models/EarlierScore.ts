@@ -21,7 +21,7 @@ export class EarlierScore extends Model<InferAttributes<EarlierScore>, InferCrea
   declare enteredBy?: User
 
   static initModel(sequelize: Sequelize): void {
-    EarlierScore.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         linkId: { type: DataTypes.UUID, allowNull: false },

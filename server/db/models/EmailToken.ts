@@ -14,7 +14,7 @@ export class EmailToken extends Model<InferAttributes<EmailToken>, InferCreation
   declare createdAt: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize): void {
-    EmailToken.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         purpose: { type: DataTypes.STRING(16), allowNull: false },

@@ -11,7 +11,7 @@ export class Invitation extends Model<InferAttributes<Invitation>, InferCreation
   declare createdAt: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize): void {
-    Invitation.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         therapistId: { type: DataTypes.UUID, allowNull: false },

@@ -18,7 +18,7 @@ export class Link extends Model<InferAttributes<Link>, InferCreationAttributes<L
   declare therapist?: NonAttribute<User>
 
   static initModel(sequelize: Sequelize): void {
-    Link.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         personId: { type: DataTypes.UUID, allowNull: false },

@@ -10,7 +10,7 @@ export class PrepNote extends Model<InferAttributes<PrepNote>, InferCreationAttr
   declare updatedAt: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize): void {
-    PrepNote.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         linkId: { type: DataTypes.UUID, allowNull: false },

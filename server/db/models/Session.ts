@@ -8,7 +8,7 @@ export class Session extends Model<InferAttributes<Session>, InferCreationAttrib
   declare userId: string | null
 
   static initModel(sequelize: Sequelize): void {
-    Session.init(
+    this.init(
       {
         sid: { type: DataTypes.STRING(64), primaryKey: true },
         expires: { type: DataTypes.DATE, allowNull: true },

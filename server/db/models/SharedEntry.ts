@@ -20,7 +20,7 @@ export class SharedEntry extends Model<InferAttributes<SharedEntry>, InferCreati
   declare updatedAt: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize): void {
-    SharedEntry.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         linkId: { type: DataTypes.UUID, allowNull: false },

@@ -16,7 +16,7 @@ export class TherapistProfile extends Model<InferAttributes<TherapistProfile>, I
   declare approvedBy?: NonAttribute<User | null>
 
   static initModel(sequelize: Sequelize): void {
-    TherapistProfile.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         practice: { type: DataTypes.STRING(120), allowNull: false },

@@ -16,7 +16,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare therapistProfile?: NonAttribute<TherapistProfile | null>
 
   static initModel(sequelize: Sequelize): void {
-    User.init(
+    this.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         email: { type: DataTypes.STRING(254), allowNull: false, unique: true },

@@ -1,7 +1,7 @@
 import { Router } from 'express'
 import { appointmentCreateSchema, invitationCreateSchema, linkCodeBodySchema, linkIdParamSchema } from '../../../shared/schemas/link.schema'
 import type { AppDeps } from '../../deps'
-import { limitPerIp } from '../../middleware/rateLimit'
+import { limitPerIp, sharedCounters } from '../../middleware/rateLimit'
 import { requireVerified } from '../../middleware/requireAuth'
 import { requireApprovedTherapist, requireRole } from '../../middleware/requireRole'
 import { validate } from '../../middleware/validate'
@@ -11,7 +11,7 @@ import { linksController } from './links.controller'
 export function linksRoutes(deps: AppDeps) {
   const c = linksController(deps)
   // Codes are short enough to type, so wrong guesses are limited; only failures count.
-  const codeLimit = limitPerIp(20, { skipSuccessfulRequests: true })
+  const codeLimit = limitPerIp(20, { skipSuccessfulRequests: true, store: sharedCounters(deps, 'link-code') })
   const person = [requireRole('person'), requireVerified]
   const router = Router()
 

@@ -21,7 +21,13 @@ const withEnteredBy = (deps: Deps) => [{ model: deps.models.User, as: 'enteredBy
 
 /** The earlier scores of one link, oldest first (no access check: callers check the link). */
 export async function earlierScoresOfLink(deps: Deps, linkId: string): Promise<EarlierScore[]> {
-  return deps.models.EarlierScore.findAll({ where: { linkId }, include: withEnteredBy(deps), order: [['takenOn', 'ASC'], ['createdAt', 'ASC']] })
+  // Rows of one upload share createdAt; PostgreSQL, unlike SQLite, does not return ties in insertion order, so the order is
+  // spelled out to the end: same day, PHQ-9 before GAD-7, then the id.
+  return deps.models.EarlierScore.findAll({
+    where: { linkId },
+    include: withEnteredBy(deps),
+    order: [['takenOn', 'ASC'], ['createdAt', 'ASC'], ['instrument', 'DESC'], ['id', 'ASC']],
+  })
 }
 
 /**

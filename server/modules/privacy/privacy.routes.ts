@@ -1,7 +1,7 @@
 import { Router } from 'express'
 import { closeAccountSchema } from '../../../shared/schemas/privacy.schema'
 import type { AppDeps } from '../../deps'
-import { limitPerIp } from '../../middleware/rateLimit'
+import { limitPerIp, sharedCounters } from '../../middleware/rateLimit'
 import { requireAuth } from '../../middleware/requireAuth'
 import { requireRole } from '../../middleware/requireRole'
 import { validate } from '../../middleware/validate'
@@ -11,7 +11,7 @@ import { privacyController } from './privacy.controller'
 export function privacyRoutes(deps: AppDeps) {
   const c = privacyController(deps)
   // The password is checked again here, so wrong guesses are limited like sign-in; only failures count.
-  const closeLimit = limitPerIp(10, { skipSuccessfulRequests: true })
+  const closeLimit = limitPerIp(10, { skipSuccessfulRequests: true, store: sharedCounters(deps, 'close-account') })
   const router = Router()
   router.get('/me/export', requireRole('person'), c.exportAccount)
   router.delete('/me', requireAuth, c.onlyPersonCloses, closeLimit, validate({ body: closeAccountSchema }), c.closeAccount)

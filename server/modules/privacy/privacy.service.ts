@@ -134,7 +134,9 @@ export async function closeAccount(deps: Deps, user: User, password: string): Pr
 
   const now = clock(deps)
   const notify = await deps.sequelize.transaction(async (transaction) => {
-    const links = await models.Link.findAll({ where: { personId: user.id }, transaction })
+    // Locked first, so a share being written to one of these links through another instance finishes before, or finds
+    // the link ended after (see shares.service.ts).
+    const links = await models.Link.findAll({ where: { personId: user.id }, lock: transaction.LOCK.UPDATE, transaction })
     const linkIds = links.map((l) => l.id)
     const inLinks = { linkId: { [Op.in]: linkIds } }
     await models.SharedEntry.destroy({ where: inLinks, transaction })

@@ -1,6 +1,7 @@
-import { Op } from 'sequelize'
+import { Op, UniqueConstraintError, type Transaction } from 'sequelize'
 import type { Entry } from '../../../shared/schemas/entry.schema'
 import type { AccessLogRow, ShareDeleteResponse, SharePutResponse, ShareStateRow } from '../../../shared/schemas/share.schema'
+import type { Link } from '../../db/models/Link'
 import type { AppDeps } from '../../deps'
 import { HttpError } from '../../middleware/HttpError'
 import { clock, linkOfPerson } from '../links/linkAccess'
@@ -10,6 +11,26 @@ import { entryRiskFlag } from '../../../shared/content/entryRiskFlag'
 type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'mailer' | 'log' | 'config' | 'now'>
 
 const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
+
+/**
+ * Runs a share write in a transaction that first locks the link's row, so every write to one link's shares waits for the
+ * one before it, in this process or another instance (PostgreSQL: SELECT ... FOR UPDATE; SQLite takes the write lock at
+ * BEGIN and ignores the row lock). Reading the share after the lock therefore sees every earlier write. Should two
+ * inserts of one (linkId, entryId) still meet at the unique index, the loser runs again and finds the winner's row.
+ */
+async function writeShare<T>(deps: Deps, linkId: string, work: (transaction: Transaction, link: Link) => Promise<T>): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await deps.sequelize.transaction(async (transaction) => {
+        const link = await deps.models.Link.findByPk(linkId, { lock: transaction.LOCK.UPDATE, transaction })
+        if (!link) throw new HttpError(404, 'not_found', 'There is no such link.')
+        return work(transaction, link)
+      })
+    } catch (err) {
+      if (!(err instanceof UniqueConstraintError) || attempt >= 3) throw err
+    }
+  }
+}
 
 /**
  * Stores a share (DESIGN.md, Sharing protocol). A stored copy or tombstone at the same or a higher version makes the call
@@ -25,7 +46,9 @@ export async function putShare(deps: Deps, personId: string, linkId: string, ent
   const copy: Entry = { ...payload, shares: [] }
   const values = { kind: payload.kind, version, payload: JSON.stringify(copy), withdrawnAt: null, readAt: null, riskFlag: entryRiskFlag(payload), sharedAt: now }
 
-  const status = await deps.sequelize.transaction(async (transaction) => {
+  const status = await writeShare(deps, linkId, async (transaction, locked) => {
+    // Checked again under the lock: an ending that committed since the check above wins.
+    if (locked.state !== 'active') throw new HttpError(409, 'link_not_active', 'This link has ended, so nothing more can be shared over it.')
     const row = await deps.models.SharedEntry.findOne({ where: { linkId, entryId }, transaction })
     if (row && row.version >= version) return 'unchanged' as const
     if (row) await row.update(values, { transaction })
@@ -45,7 +68,7 @@ export async function putShare(deps: Deps, personId: string, linkId: string, ent
 export async function deleteShare(deps: Deps, personId: string, linkId: string, entryId: string, version: number): Promise<ShareDeleteResponse> {
   await linkOfPerson(deps, personId, linkId)
   const now = clock(deps)
-  return deps.sequelize.transaction(async (transaction) => {
+  return writeShare(deps, linkId, async (transaction) => {
     const row = await deps.models.SharedEntry.findOne({ where: { linkId, entryId }, transaction })
     if (!row) {
       await deps.models.SharedEntry.create({ linkId, entryId, kind: null, version, payload: null, withdrawnAt: now, readAt: null, toDiscuss: false, riskFlag: false, sharedAt: null }, { transaction })
