@@ -7,6 +7,7 @@ import type { PrepNote } from '../../db/models/PrepNote'
 import { HttpError } from '../../middleware/HttpError'
 import { clock, linkOfTherapist } from '../links/linkAccess'
 import { caseloadMeasures } from '../measures/measures.service'
+import { recordReads } from '../shares/recordReads'
 
 type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'now'>
 
@@ -69,20 +70,15 @@ export async function caseload(deps: Deps, therapistId: string): Promise<Caseloa
 
 /**
  * The live shared copies of one active link, newest first. Returning content is what "opened" means in the person's access
- * log, so one audit row per returned entry is written (actor: therapist; subjectUserId: person; subjectId: the shared
- * copy's id, which names link and entry together) in the same transaction as the read. An empty answer writes nothing.
+ * log, so each returned entry gets an audit row (actor: therapist; subjectUserId: person; subjectId: the shared copy's id,
+ * which names link and entry together) in the same transaction as the read, at most one per copy and version per
+ * READ_WINDOW_MS (recordReads). An empty answer writes nothing.
  */
 export async function readShares(deps: Deps, therapistId: string, linkId: string): Promise<SharedEntryView[]> {
   const link = await linkOfTherapist(deps, therapistId, linkId)
   return deps.sequelize.transaction(async (transaction) => {
     const rows = await deps.models.SharedEntry.findAll({ where: { linkId, ...live }, order: [['sharedAt', 'DESC']], transaction })
-    const at = clock(deps)
-    if (rows.length) {
-      await deps.models.AuditEvent.bulkCreate(
-        rows.map((r) => ({ actorId: therapistId, action: 'shares.read', subjectUserId: link.personId, subjectId: r.id, at })),
-        { transaction },
-      )
-    }
+    await recordReads(deps, therapistId, rows.map((r) => ({ id: r.id, personId: link.personId, sharedAt: r.sharedAt })), transaction)
     return rows.map((r) => ({
       entryId: r.entryId,
       kind: r.kind,
