@@ -109,6 +109,67 @@ describe('caseload measure columns', () => {
   })
 })
 
+describe('stored scores and the caseload access log', () => {
+  const columns = (r: { measureInstrument: string | null; measureTotal: number | null; measureBand: string | null; measureTakenAt: Date | null } | null) =>
+    r && [r.measureInstrument, r.measureTotal, r.measureBand, r.measureTakenAt?.toISOString() ?? null]
+
+  it('stores the score the server computed from the answers, never the device\'s, and drops it with the payload', async () => {
+    const { person, linkId } = await pair('Umber')
+    const id = randomUUID()
+    const extra = measureExtra('gad7', [1, 1, 1, 1, 0, 1, 2], T0) as Partial<Entry> & { total?: number; band?: string }
+    await person.agent.put(`/api/links/${linkId}/shares/${id}`).set('x-csrf-token', person.token).send({ version: 1, payload: { id, version: 1, updatedAt: T0, shares: [], ...extra, total: 21, band: 'severe' } }).expect(200)
+    // PACIO sample: [1,1,1,1,0,1,2] → 7 mild (REFERENCE check value 5)
+    expect(columns(await t.deps.models.SharedEntry.findOne({ where: { linkId, entryId: id } }))).toEqual(['gad7', 7, 'mild', new Date(T0).toISOString()])
+    const moment = randomUUID()
+    await put(person, linkId, moment, 1, 'not-a-measure')
+    expect(columns(await t.deps.models.SharedEntry.findOne({ where: { linkId, entryId: moment } }))).toEqual([null, null, null, null])
+
+    await person.del(`/api/links/${linkId}/shares/${id}?version=1`).expect(200)
+    expect(columns(await t.deps.models.SharedEntry.findOne({ where: { linkId, entryId: id } }))).toEqual([null, null, null, null])
+  })
+
+  it('drops every stored score when the link ends', async () => {
+    const { person, linkId } = await pair('Vetch')
+    await shareMeasure(person, linkId, 'phq9', [2, 2, 2, 2, 1, 1, 2, 0, 0], T0)
+    expect(await t.deps.models.SharedEntry.count({ where: { linkId, measureTotal: 12 } })).toBe(1)
+    await person.post(`/api/links/${linkId}/end`).expect(200)
+    const rows = await t.deps.models.SharedEntry.findAll({ where: { linkId } })
+    expect(rows.map((r) => [r.payload, ...columns(r)!])).toEqual([[null, null, null, null, null]])
+  })
+
+  it('scores a copy stored before the score columns existed from its payload', async () => {
+    const { therapist, person, linkId } = await pair('Willow')
+    await shareMeasure(person, linkId, 'phq9', [2, 2, 2, 2, 2, 2, 2, 2, 1], T0) // 17
+    await shareMeasure(person, linkId, 'phq9', [1, 1, 1, 1, 1, 1, 1, 1, 0], T0 + 14 * DAY) // 8
+    const [older] = await t.deps.models.SharedEntry.findAll({ where: { linkId }, order: [['measureTakenAt', 'ASC']] })
+    await t.deps.models.SharedEntry.update({ measureInstrument: null, measureTotal: null, measureBand: null, measureTakenAt: null }, { where: { id: older!.id } })
+    expect((await caseloadRow(therapist, linkId)).measures.phq9).toMatchObject({ latest: 8, band: 'mild', changeSinceFirst: -9 })
+  })
+
+  it('logs the copies behind the caseload once per ten minutes, and again after', async () => {
+    let now = new Date('2027-04-01T09:00:00Z')
+    t.deps.now = () => now
+    try {
+      const { th, therapist, person, linkId, p } = await pair('Xanthe')
+      await shareMeasure(person, linkId, 'phq9', [2, 2, 2, 2, 2, 2, 2, 2, 1], T0)
+      await shareMeasure(person, linkId, 'phq9', [1, 1, 1, 1, 1, 1, 1, 1, 0], T0 + 14 * DAY)
+      const reads = () => t.deps.models.AuditEvent.count({ where: { action: 'shares.read', actorId: th.user.id, subjectUserId: p.user.id } })
+      await caseloadRow(therapist, linkId)
+      expect(await reads()).toBe(2)
+      now = new Date(now.getTime() + 9 * 60_000)
+      await caseloadRow(therapist, linkId)
+      await therapist.get(`/api/therapist/links/${linkId}/measures`).expect(200)
+      expect(await reads()).toBe(2)
+      now = new Date(now.getTime() + 2 * 60_000)
+      await caseloadRow(therapist, linkId)
+      expect(await reads()).toBe(4)
+      expect((await t.deps.models.AuditEvent.findAll({ where: { action: 'shares.read', actorId: th.user.id, at: now } })).length).toBe(2)
+    } finally {
+      t.deps.now = undefined
+    }
+  })
+})
+
 describe('POST /api/therapist/links/:linkId/earlier-scores', () => {
   it('stores a valid file, marks the rows as entered by the therapist and counts change from the earlier first score', async () => {
     const { therapist, person, linkId, th, p } = await pair('Ulla')

@@ -11,6 +11,7 @@ afterAll(async () => { await t.close() })
 afterEach(() => { t.deps.now = undefined })
 
 const HOUR = 60 * 60 * 1000
+const MINUTE = 60 * 1000
 
 async function pair(name: string) {
   const th = await makeTherapist(t, 'Elliot Marsh')
@@ -61,7 +62,7 @@ describe('GET /api/therapist/caseload', () => {
 })
 
 describe('GET /api/therapist/links/:linkId/shares and the access log', () => {
-  it('returns live copies newest first, writes one audit row per returned entry, and shows them in the person\'s access log', async () => {
+  it('returns live copies newest first, writes one audit row per returned entry, and shows them in the person\'s access log once per ten minutes', async () => {
     let now = new Date('2027-03-01T09:00:00Z')
     t.deps.now = () => now
     const { th, p, therapist, person, linkId } = await pair('Quill')
@@ -91,9 +92,44 @@ describe('GET /api/therapist/links/:linkId/shares and the access log', () => {
     expect(log.body.events[0]).toMatchObject({ at: now.toISOString(), by: 'Elliot Marsh', action: 'opened' })
     expect(JSON.stringify(log.body)).not.toMatch(/older-words|newer-words/)
 
-    // A second read is a second opening.
-    await therapist.get(`/api/therapist/links/${linkId}/shares`)
-    expect(await t.deps.models.AuditEvent.count({ where: { action: 'shares.read', actorId: th.user.id } })).toBe(4)
+    // A refresh within ten minutes is the same opening; after ten minutes it is a new one.
+    now = new Date(now.getTime() + 9 * MINUTE)
+    await therapist.get(`/api/therapist/links/${linkId}/shares`).expect(200)
+    expect(await t.deps.models.AuditEvent.count({ where: { action: 'shares.read', actorId: th.user.id } })).toBe(2)
+    now = new Date(now.getTime() + 2 * MINUTE)
+    await therapist.get(`/api/therapist/links/${linkId}/shares`).expect(200)
+    const after = await t.deps.models.AuditEvent.findAll({ where: { action: 'shares.read', actorId: th.user.id }, order: [['at', 'ASC']] })
+    expect(after).toHaveLength(4)
+    expect(after.slice(2).map((e) => e.at)).toEqual([now, now])
+    expect((await person.get(`/api/person/links/${linkId}/access-log`)).body.events).toHaveLength(4)
+  })
+
+  it('logs a new version read within ten minutes, but not the unchanged copy beside it', async () => {
+    let now = new Date('2027-03-02T09:00:00Z')
+    t.deps.now = () => now
+    const { th, person, therapist, linkId } = await pair('Wren')
+    const [kept, edited] = [randomUUID(), randomUUID()]
+    await put(person, linkId, kept, 1, 'kept-words')
+    await put(person, linkId, edited, 1, 'first-words')
+    await therapist.get(`/api/therapist/links/${linkId}/shares`).expect(200)
+    now = new Date(now.getTime() + 3 * MINUTE)
+    await put(person, linkId, edited, 2, 'second-words')
+    now = new Date(now.getTime() + MINUTE)
+    const res = await therapist.get(`/api/therapist/links/${linkId}/shares`).expect(200)
+    expect(JSON.stringify(res.body)).toContain('second-words')
+    const editedRow = await t.deps.models.SharedEntry.findOne({ where: { linkId, entryId: edited } })
+    const keptRow = await t.deps.models.SharedEntry.findOne({ where: { linkId, entryId: kept } })
+    expect(await t.deps.models.AuditEvent.count({ where: { action: 'shares.read', actorId: th.user.id, subjectId: editedRow!.id } })).toBe(2)
+    expect(await t.deps.models.AuditEvent.count({ where: { action: 'shares.read', actorId: th.user.id, subjectId: keptRow!.id } })).toBe(1)
+  })
+
+  it('writes one row per copy when the same therapist sends several reads at once', async () => {
+    t.deps.now = () => new Date('2027-03-03T09:00:00Z')
+    const { th, person, therapist, linkId } = await pair('Yarrow')
+    for (const n of [1, 2, 3]) await put(person, linkId, randomUUID(), 1, `burst-${n}`)
+    const answers = await Promise.all([1, 2, 3, 4].map(() => therapist.get(`/api/therapist/links/${linkId}/shares`)))
+    expect(answers.map((a) => a.status)).toEqual([200, 200, 200, 200])
+    expect(await t.deps.models.AuditEvent.count({ where: { action: 'shares.read', actorId: th.user.id } })).toBe(3)
   })
 
   it('writes no audit row when there is nothing to return', async () => {

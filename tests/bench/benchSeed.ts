@@ -5,6 +5,7 @@ import { hashPassword } from '../../server/auth/password'
 import { initModels } from '../../server/db/associations'
 import { migrate } from '../../server/db/migrations'
 import { openDatabase } from '../../server/db/sequelize'
+import { measureColumnsOf } from '../../server/modules/measures/measureColumns'
 import type { Entry } from '../../shared/schemas/entry.schema'
 
 export const BENCH_PASSWORD = 'bench-person-quarry-lamp'
@@ -100,7 +101,8 @@ export async function seedBench(dataDir: string, count: number, opts: { caseload
         const measures = (['phq9', 'gad7'] as const).flatMap((m) =>
           [20, 6].map((daysAgo) => {
             const e = benchMeasure(randomUUID(), m, i + daysAgo, now - daysAgo * DAY)
-            return { linkId: l.id, entryId: e.id, kind: e.kind, version: 1, payload: JSON.stringify(e), withdrawnAt: null, readAt: null, toDiscuss: false, riskFlag: false, sharedAt: new Date(now - daysAgo * DAY) }
+            // The score columns as putShare stores them.
+            return { linkId: l.id, entryId: e.id, kind: e.kind, version: 1, payload: JSON.stringify(e), withdrawnAt: null, readAt: null, toDiscuss: false, riskFlag: false, sharedAt: new Date(now - daysAgo * DAY), ...measureColumnsOf(e) }
           }),
         )
         return [...moments, ...measures]

@@ -7,10 +7,12 @@ import type { PrepNote } from '../../db/models/PrepNote'
 import { HttpError } from '../../middleware/HttpError'
 import { clock, linkOfTherapist } from '../links/linkAccess'
 import { caseloadMeasures } from '../measures/measures.service'
+import { recordReads } from '../shares/recordReads'
 
 type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'now'>
 
 const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
+const asDate = (v: Date | string | null): Date | null => (v === null ? null : v instanceof Date ? v : new Date(v))
 const live = { withdrawnAt: null, payload: { [Op.ne]: null } }
 
 /**
@@ -30,9 +32,13 @@ export async function caseload(deps: Deps, therapistId: string): Promise<Caseloa
   const ids = links.map((l) => l.id)
   const [measures, shares, appointments] = await Promise.all([
     caseloadMeasures(deps, therapistId, links),
-    deps.models.SharedEntry.findAll({ where: { linkId: { [Op.in]: ids }, ...live }, attributes: ['linkId', 'sharedAt', 'toDiscuss', 'riskFlag'] }),
-    deps.models.Appointment.findAll({ where: { linkId: { [Op.in]: ids } }, attributes: ['linkId', 'at'] }),
+    // Plain rows, not model instances: building 1 000 instances per request cost more than the queries.
+    deps.models.SharedEntry.findAll({ where: { linkId: { [Op.in]: ids }, ...live }, attributes: ['linkId', 'sharedAt', 'toDiscuss', 'riskFlag'], raw: true }),
+    deps.models.Appointment.findAll({ where: { linkId: { [Op.in]: ids } }, attributes: ['linkId', 'at'], raw: true }),
   ])
+  // Raw rows carry the driver's values: SQLite gives dates as text and booleans as 0/1.
+  for (const s of shares) Object.assign(s, { sharedAt: asDate(s.sharedAt), toDiscuss: Boolean(s.toDiscuss), riskFlag: Boolean(s.riskFlag) })
+  for (const a of appointments) a.at = asDate(a.at)!
   const sharesOf = new Map<string, typeof shares>(ids.map((id) => [id, []]))
   for (const s of shares) sharesOf.get(s.linkId)!.push(s)
   // The same rules as lastSessionOf (the latest appointment at or before now) and the next one strictly after now.
@@ -69,20 +75,15 @@ export async function caseload(deps: Deps, therapistId: string): Promise<Caseloa
 
 /**
  * The live shared copies of one active link, newest first. Returning content is what "opened" means in the person's access
- * log, so one audit row per returned entry is written (actor: therapist; subjectUserId: person; subjectId: the shared
- * copy's id, which names link and entry together) in the same transaction as the read. An empty answer writes nothing.
+ * log, so each returned entry gets an audit row (actor: therapist; subjectUserId: person; subjectId: the shared copy's id,
+ * which names link and entry together) in the same transaction as the read, at most one per copy and version per
+ * READ_WINDOW_MS (recordReads). An empty answer writes nothing.
  */
 export async function readShares(deps: Deps, therapistId: string, linkId: string): Promise<SharedEntryView[]> {
   const link = await linkOfTherapist(deps, therapistId, linkId)
   return deps.sequelize.transaction(async (transaction) => {
     const rows = await deps.models.SharedEntry.findAll({ where: { linkId, ...live }, order: [['sharedAt', 'DESC']], transaction })
-    const at = clock(deps)
-    if (rows.length) {
-      await deps.models.AuditEvent.bulkCreate(
-        rows.map((r) => ({ actorId: therapistId, action: 'shares.read', subjectUserId: link.personId, subjectId: r.id, at })),
-        { transaction },
-      )
-    }
+    await recordReads(deps, therapistId, rows.map((r) => ({ id: r.id, personId: link.personId, sharedAt: r.sharedAt })), transaction)
     return rows.map((r) => ({
       entryId: r.entryId,
       kind: r.kind,

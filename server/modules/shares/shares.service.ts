@@ -6,6 +6,7 @@ import type { AppDeps } from '../../deps'
 import { HttpError } from '../../middleware/HttpError'
 import { clock, linkOfPerson } from '../links/linkAccess'
 import { maybeSendShareDigest } from './digest.service'
+import { measureColumnsOf } from '../measures/measureColumns'
 import { entryRiskFlag } from '../../../shared/content/entryRiskFlag'
 
 type Deps = Pick<AppDeps, 'models' | 'sequelize' | 'mailer' | 'log' | 'config' | 'now'>
@@ -44,7 +45,7 @@ export async function putShare(deps: Deps, personId: string, linkId: string, ent
   const now = clock(deps)
   // The device's list of its own shares names other links; it is nobody else's business, so it is not stored.
   const copy: Entry = { ...payload, shares: [] }
-  const values = { kind: payload.kind, version, payload: JSON.stringify(copy), withdrawnAt: null, readAt: null, riskFlag: entryRiskFlag(payload), sharedAt: now }
+  const values = { kind: payload.kind, version, payload: JSON.stringify(copy), withdrawnAt: null, readAt: null, riskFlag: entryRiskFlag(payload), sharedAt: now, ...measureColumnsOf(payload) }
 
   const status = await writeShare(deps, linkId, async (transaction, locked) => {
     // Checked again under the lock: an ending that committed since the check above wins.
@@ -89,8 +90,8 @@ export async function listPersonShareStates(deps: Deps, personId: string, linkId
 }
 
 /**
- * When the therapist's screens received which of the person's shared entries: one row per entry per response, newest
- * first. Holds no content.
+ * When the therapist's screens received which of the person's shared entries: one row per entry per response, repeats
+ * within ten minutes coalesced (recordReads), newest first. Holds no content.
  */
 export async function accessLog(deps: Deps, personId: string, linkId: string): Promise<AccessLogRow[]> {
   const link = await linkOfPerson(deps, personId, linkId)
