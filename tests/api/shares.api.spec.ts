@@ -6,7 +6,9 @@ import { makeTestApp, type TestApp } from '../helpers/testApp'
 import { entryPayload, linkUp, makePerson, makeTherapist, put, signedInAs, type Agent } from './linkFixtures'
 
 let t: TestApp
-beforeAll(async () => { t = await makeTestApp() })
+// These tests move the app's clock by days; session timeouts (tested in sessions.api.spec.ts) would sign everyone out.
+const longSessions = { SESSION_IDLE_MINUTES: '10000000', SESSION_ABSOLUTE_HOURS: '1000000' }
+beforeAll(async () => { t = await makeTestApp(longSessions) })
 afterAll(async () => { await t.close() })
 afterEach(() => { t.deps.now = undefined })
 

@@ -8,7 +8,7 @@ const password = 'correct horse battery staple'
 describe('hashPassword and verifyPassword', () => {
   it('verifies the password a hash was made from', async () => {
     const stored = await hashPassword(password, cost)
-    expect(stored).toMatch(/^scrypt\$1024\$8\$1\$[A-Za-z0-9+/=]+\$[A-Za-z0-9+/=]+$/)
+    expect(stored).toMatch(/^scrypt\$1024\$8\$3\$[A-Za-z0-9+/=]+\$[A-Za-z0-9+/=]+$/)
     expect(stored).not.toContain(password)
     expect(await verifyPassword(password, stored)).toBe(true)
   })
