@@ -9,6 +9,8 @@ afterAll(async () => { await server?.close() })
 
 async function expectHelpNowOpens(page: import('playwright-core').Page, path: string) {
   const button = page.getByRole('button', { name: 'Help now' })
+  // The static fallback's heading can show before the app mounts; wait for the app's own button.
+  await button.waitFor({ state: 'visible', timeout: 10_000 }).catch(() => {})
   await expect(button.isVisible(), `Help now visible on ${path}`).resolves.toBe(true)
   await button.click()
   const dialog = page.getByRole('dialog')
