@@ -1,5 +1,6 @@
 import fs from 'node:fs'
 import path from 'node:path'
+import compression from 'compression'
 import { csrfSync } from 'csrf-sync'
 import express, { type Express, type RequestHandler } from 'express'
 import helmet from 'helmet'
@@ -70,6 +71,9 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
   app.use(securityHeaders(config.appUrl.startsWith('https:')))
   // Every request gets an id (X-Request-Id) and req.log; LOG_REQUESTS decides whether each one is also logged.
   app.use(httpLogger(deps.log, config.logRequests))
+  // The app's own files are compressed; /api answers are not, since they can hold a CSRF token next to text a request
+  // chose (the BREACH attack on compressed secrets).
+  app.use(compression({ filter: (req, res) => !req.path.startsWith('/api') && compression.filter(req, res) }))
 
   const session = createSessionMiddleware(config, deps.sequelize)
   const passport = createPassport(deps.models, config.scryptCost)

@@ -157,3 +157,19 @@ describe('errors never carry server details', () => {
     }
   })
 })
+
+describe('compression', () => {
+  it('compresses the app’s own files but never an /api answer', async () => {
+    const app = await makeTestApp({}, { clientDir: path.resolve('dist') })
+    try {
+      const js = fs.readdirSync('dist/assets').find((f) => f.endsWith('.js') && fs.statSync(`dist/assets/${f}`).size > 4096)!
+      const asset = await supertest(app.app).get(`/assets/${js}`).set('Accept-Encoding', 'gzip')
+      expect(asset.headers['content-encoding']).toBe('gzip')
+      const csrf = await supertest(app.app).get('/api/auth/csrf').set('Accept-Encoding', 'gzip')
+      expect(csrf.status).toBe(200)
+      expect(csrf.headers['content-encoding']).toBeUndefined()
+    } finally {
+      await app.close()
+    }
+  })
+})
