@@ -159,7 +159,7 @@ describe('session writes', () => {
     const { user, a } = await signedIn()
     const writes: string[] = []
     const options = (t.deps.sequelize as unknown as { options: { logging: unknown } }).options
-    options.logging = (sql: string) => { if (/^Executing \(\w+\): (UPDATE|INSERT)[^;]*`sessions`/.test(sql)) writes.push(sql) }
+    options.logging = (sql: string) => { if (/^Executing \(\w+\): (UPDATE|INSERT)[^;]*[`"]sessions[`"]/.test(sql)) writes.push(sql) }
     try {
       const row = async () => (await t.deps.models.Session.findOne({ where: { userId: user.id } }))!
       const first = await row()

@@ -57,6 +57,9 @@ export async function recordReads(deps: Deps, actorId: string, copies: readonly 
   const since = new Date(at.getTime() - READ_WINDOW_MS)
   const ids = [...new Set(copies.map((c) => c.id))]
   const write = async (t: Transaction) => {
+    // PostgreSQL runs transactions side by side (and across instances): one reader's check-then-insert goes one at a time.
+    if (deps.sequelize.getDialect() === 'postgres')
+      await deps.sequelize.query('SELECT pg_advisory_xact_lock(hashtext(:key))', { replacements: { key: `reads:${actorId}` }, transaction: t })
     const missing = unlogged(copies, await recentReads(deps, actorId, ids, since, t))
     if (missing.length) await deps.models.AuditEvent.bulkCreate(missing.map((c) => ({ actorId, action: 'shares.read', subjectUserId: c.personId, subjectId: c.id, at })), { transaction: t })
     return missing.length
@@ -64,7 +67,7 @@ export async function recordReads(deps: Deps, actorId: string, copies: readonly 
   if (transaction) return write(transaction)
   // Outside a transaction: a refresh within the window finds every row and writes nothing, without taking the write lock.
   // Otherwise look again inside one, since managed transactions run one at a time: a burst of identical requests then
-  // writes one row per copy, not one per request (with several PostgreSQL instances a rare repeat only repeats "opened").
+  // writes one row per copy, not one per request; on PostgreSQL the advisory lock above does the same across instances.
   if (!unlogged(copies, await recentReads(deps, actorId, ids, since)).length) return 0
   return deps.sequelize.transaction(write)
 }
