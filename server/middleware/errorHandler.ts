@@ -3,6 +3,7 @@ import { UniqueConstraintError } from 'sequelize'
 import { ZodError } from 'zod'
 import type { Logger } from '../log/logger'
 import { HttpError } from './HttpError'
+import { publicIssues } from './publicIssues'
 
 /**
  * Maps every thrown error to the one error shape. Unknown errors become 500 with the message hidden: the stack, file
@@ -20,7 +21,7 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
       return
     }
     if (err instanceof ZodError) {
-      res.status(400).json({ error: { code: 'invalid_input', message: 'Some fields need another look.', details: err.issues } })
+      res.status(400).json({ error: { code: 'invalid_input', message: 'Some fields need another look.', details: publicIssues(err.issues) } })
       return
     }
     if (err instanceof UniqueConstraintError) {

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express'
 import type { ZodType } from 'zod'
 import { HttpError } from './HttpError'
+import { publicIssues, type PublicIssue } from './publicIssues'
 
 interface Schemas {
   body?: ZodType
@@ -28,13 +29,13 @@ function nulPath(value: unknown, path: (string | number)[] = []): (string | numb
 /** Validates the parts of a request with shared zod schemas; parsed values replace the raw ones. */
 export function validate(schemas: Schemas): RequestHandler {
   return (req, _res, next) => {
-    const issues: unknown[] = []
+    const issues: PublicIssue[] = []
     for (const part of ['params', 'query', 'body'] as const) {
       const schema = schemas[part]
       if (!schema) continue
       const result = schema.safeParse(req[part] ?? {})
       if (!result.success) {
-        issues.push(...result.error.issues.map((i) => ({ ...i, path: [part, ...i.path] })))
+        issues.push(...publicIssues(result.error.issues, [part]))
         continue
       }
       const nul = nulPath(result.data)
@@ -46,8 +47,7 @@ export function validate(schemas: Schemas): RequestHandler {
       Object.defineProperty(req, part, { value: result.data, writable: true, configurable: true, enumerable: true })
     }
     if (issues.length) {
-      const first = issues[0] as { message?: string }
-      throw new HttpError(400, 'invalid_input', first.message ?? 'Some fields need another look.', issues)
+      throw new HttpError(400, 'invalid_input', issues[0]!.message, issues)
     }
     next()
   }

@@ -114,6 +114,19 @@ describe('errors never carry server details', () => {
     expect(res.body).toEqual({ error: { code: 'bad_json', message: 'The request body is not valid JSON.' } })
   })
 
+  it('a field error names the field, its kind and a plain message, without check patterns or echoed unknown keys', async () => {
+    const a = await agentWithCsrf(t.app)
+    expect((await a.signIn(demoAccounts.therapist.email, demoAccounts.therapist.password)).status).toBe(200)
+    const res = await a.post("/api/therapist/links/'; DROP TABLE users; --/notes", { text: 'a note', 'key-12:34:56': 1 })
+    expect(res.status).toBe(400)
+    expect(res.body.error.code).toBe('invalid_input')
+    expect(res.body.error.details).toEqual([
+      { path: ['params', 'linkId'], code: 'invalid_format', message: 'That link id is not valid.' },
+      { path: ['body'], code: 'unrecognized_keys', message: 'This field is not expected here.' },
+    ])
+    expect(res.text).not.toMatch(/pattern|\[0-9a-fA-F\]|key-12/)
+  })
+
   it('a body over the limit answers 413 too_large in the error shape', async () => {
     const a = await agentWithCsrf(t.app)
     const res = await a.agent.post('/api/auth/signin').set('x-csrf-token', a.token).send({ email: 'x@example.org', password: 'y'.repeat(400_000) })

@@ -152,7 +152,8 @@ export async function makeFixture(s: FuzzServer): Promise<Fixture> {
   return { sessions, ids, templates, secretBody }
 }
 
-const SERVER_DETAILS = /\bat .+:\d+:\d+\)?|node_modules|\/server\/|\.ts:\d+|SQLITE_|\bSELECT\b.+\bFROM\b|\bINSERT INTO\b|Sequelize/
+// A stack frame names a file, e.g. `at fn (/app/x.js:1:2)`; plain words like “at most … 02:16:47” are not one.
+const SERVER_DETAILS = /\bat (?:[\w$.<>\[\] ]+ \()?(?:\/|file:|node:)[^\s\"]*:\d+:\d+|node_modules|\/server\/|\.ts:\d+|SQLITE_|\bSELECT\b.+\bFROM\b|\bINSERT INTO\b|Sequelize/
 
 /** Checks one answer: never 5xx, every 4xx in the shared error shape, no stack or SQL in any body. */
 export function checkAnswer(route: AppRoute, sent: string, res: { status: number; text: string; json: unknown }) {
