@@ -2,6 +2,7 @@ import { Passport } from 'passport'
 import { Strategy as LocalStrategy } from 'passport-local'
 import type { Models } from '../db/associations'
 import { randomBytes } from 'node:crypto'
+import { sessionUserLoader } from './loadSessionUser'
 import { hashPassword, verifyPassword } from './password'
 
 
@@ -23,8 +24,9 @@ export function createPassport(models: Models, scryptCost: number) {
     }),
   )
   passport.serializeUser((user, done) => done(null, user.id))
+  const loadUser = sessionUserLoader(models)
   passport.deserializeUser((id: string, done) => {
-    models.User.findByPk(id, { include: [{ model: models.TherapistProfile, as: 'therapistProfile' }] })
+    loadUser(id)
       // false signs the session out: a disabled or deleted account loses its rights on the next request.
       .then((user) => done(null, user && !user.disabledAt ? user : false))
       .catch(done)

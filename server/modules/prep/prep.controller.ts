@@ -1,12 +1,18 @@
 import type { RequestHandler } from 'express'
 import type { AppDeps } from '../../deps'
+import { caseloadCache } from './caseloadCache'
 import * as prep from './prep.service'
 
 export function prepController(deps: AppDeps) {
+  // One per app: a cached answer is reused only while the database's fingerprint still matches (caseloadCache.ts).
+  const caseloads = caseloadCache(deps)
   const ids = (p: Record<string, unknown>) => ({ linkId: String(p.linkId), noteId: String(p.noteId), entryId: String(p.entryId) })
   return {
     caseload: (async (req, res) => {
-      res.json({ caseload: await prep.caseload(deps, req.user!.id) })
+      const { body, etag } = await caseloads.get(req.user!.id)
+      // With the ETag set, res.send answers a matching If-None-Match with 304 and does not hash the body again.
+      res.setHeader('ETag', etag)
+      res.type('json').send(body)
     }) satisfies RequestHandler,
     readShares: (async (req, res) => {
       // Shared content must not linger in shared caches or the browser's disk cache.
