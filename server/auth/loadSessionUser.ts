@@ -16,7 +16,7 @@ function modelValue(type: unknown, v: unknown): unknown {
 }
 
 function columns(model: ModelStatic<Model>, alias: string) {
-  return Object.values(model.getAttributes()).map((a) => ({ field: a.field!, name: a.fieldName, as: `${alias}.${a.fieldName}`, type: a.type }))
+  return Object.entries(model.getAttributes()).map(([name, a]) => ({ field: a.field ?? name, name, as: `${alias}.${name}`, type: a.type }))
 }
 
 function valuesOf(row: Row, cols: ReturnType<typeof columns>): Row {
