@@ -1,4 +1,5 @@
-import { DataTypes, QueryTypes, type ModelStatic, type Model } from 'sequelize'
+import { DataTypes, type ModelStatic, type Model } from 'sequelize'
+import { plainSelect } from '../db/plainSelect'
 import type { Models } from '../db/associations'
 import type { User } from '../db/models/User'
 
@@ -38,7 +39,7 @@ export function sessionUserLoader(models: Models) {
   const sql = `SELECT ${select} FROM "${models.User.getTableName() as string}" AS u LEFT JOIN "${models.TherapistProfile.getTableName() as string}" AS p ON p."userId" = u."id" WHERE u."id" = ?`
   const include = [{ model: models.TherapistProfile, as: 'therapistProfile' }]
   return async (id: string): Promise<User | null> => {
-    const [row] = await models.User.sequelize!.query<Row>(sql, { replacements: [id], type: QueryTypes.SELECT })
+    const [row] = await plainSelect<Row>(models.User.sequelize!, sql, [id])
     if (!row) return null
     const profile = row['p.id'] === null || row['p.id'] === undefined ? null : valuesOf(row, profileCols)
     return models.User.build({ ...valuesOf(row, userCols), therapistProfile: profile } as never, { isNewRecord: false, raw: true, include })

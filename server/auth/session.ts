@@ -3,8 +3,9 @@ import fs from 'node:fs'
 import path from 'node:path'
 import SequelizeStoreInit from 'connect-session-sequelize'
 import session from 'express-session'
-import { QueryTypes, type Sequelize } from 'sequelize'
+import type { Sequelize } from 'sequelize'
 import type { Config } from '../config/env'
+import { plainSelect } from '../db/plainSelect'
 
 const SequelizeStore = SequelizeStoreInit(session.Store)
 
@@ -47,12 +48,11 @@ export function createSessionMiddleware(config: Readonly<Config>, sequelize: Seq
   // express-session touches the store on every request it does not save (an UPDATE per request). The timeouts middleware
   // instead changes the session at most once a minute, and that save renews the row's expiry.
   store.touch = (_sid, _session, done) => done?.(null)
-  // The read on every request, as the store's own get (the row's data, expiry left to the cookie and the tidy-up), as one
-  // plain query: the Sequelize SQLite driver adds a PRAGMA lookup and per-column work to each model query.
+  // The read on every request, as the store's own get (the row's data; expiry is left to the cookie and the tidy-up), as
+  // one plain query: the store's findOne costs a PRAGMA lookup and per-column work on SQLite besides the statement.
   const table = `"${String((store as unknown as { sessionModel: { getTableName(): unknown } }).sessionModel.getTableName())}"`
   store.get = (sid, done) => {
-    sequelize
-      .query<{ data: string }>(`SELECT "data" FROM ${table} WHERE "sid" = ?`, { replacements: [sid], type: QueryTypes.SELECT })
+    plainSelect<{ data: string }>(sequelize, `SELECT "data" FROM ${table} WHERE "sid" = ?`, [sid])
       .then(([row]) => done(null, row ? (JSON.parse(row.data) as session.SessionData) : null), (err: unknown) => done(err))
   }
   const middleware = session({

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto'
-import { QueryTypes } from 'sequelize'
 import type { CaseloadRow } from '../../../shared/schemas/prep.schema'
 import type { AppDeps } from '../../deps'
+import { plainSelect } from '../../db/plainSelect'
 import { clock } from '../links/linkAccess'
 import { READ_WINDOW_MS } from '../shares/recordReads'
 import { caseload } from './prep.service'
@@ -21,8 +21,6 @@ interface Cached extends CaseloadAnswer {
   expiresAt: number
 }
 
-// Double quotes, not backticks: the same text runs on SQLite and PostgreSQL, and Sequelize's SQLite driver skips its
-// per-table PRAGMA lookup for it. Raw rows, no model instances.
 const FINGERPRINT_SQL = 'SELECT COUNT(*) AS "n", COALESCE(SUM("caseloadVersion"), 0) AS "v" FROM "links" WHERE "therapistId" = ?'
 
 /**
@@ -32,7 +30,7 @@ const FINGERPRINT_SQL = 'SELECT COUNT(*) AS "n", COALESCE(SUM("caseloadVersion")
  * whichever instance wrote it.
  */
 export async function caseloadFingerprint(deps: Deps, therapistId: string): Promise<string> {
-  const [row] = await deps.sequelize.query<{ n: number | string; v: number | string }>(FINGERPRINT_SQL, { replacements: [therapistId], type: QueryTypes.SELECT })
+  const [row] = await plainSelect<{ n: number | string; v: number | string }>(deps.sequelize, FINGERPRINT_SQL, [therapistId])
   return `${row?.n ?? 0}:${row?.v ?? 0}`
 }
 
