@@ -28,20 +28,55 @@ function valuesOf(row: Row, cols: ReturnType<typeof columns>): Row {
 
 /**
  * What passport's deserializeUser needs on every signed-in request: the user with their therapist profile, as a model
- * instance equal to `User.findByPk(id, { include: therapistProfile })`. One plain JOIN with double-quoted names (the same
- * text on SQLite and PostgreSQL), without the Sequelize SQLite driver's per-table PRAGMA lookups and include
+ * instance equal to `User.findByPk(id, { include: therapistProfile })`, from plain JOINs with double-quoted names (the
+ * same text on SQLite and PostgreSQL), without the Sequelize SQLite driver's per-table PRAGMA lookups and include
  * machinery, which cost more than the query itself on every request.
+ *
+ * `readSession` is the session store's read: the session row and, through its userId column, the user in the same
+ * statement. The user is handed to `take` for the deserialiser of the same request, which runs synchronously right after
+ * the store answers; anything not taken is dropped before the next turn of the event loop. `load` is the fallback (a
+ * session row written before it carried userId, or a user id that does not match).
  */
-export function sessionUserLoader(models: Models) {
+export function sessionUsers(models: Models) {
   const userCols = columns(models.User as unknown as ModelStatic<Model>, 'u')
   const profileCols = columns(models.TherapistProfile as unknown as ModelStatic<Model>, 'p')
   const select = [...userCols.map((c) => `u."${c.field}" AS "${c.as}"`), ...profileCols.map((c) => `p."${c.field}" AS "${c.as}"`)].join(', ')
-  const sql = `SELECT ${select} FROM "${models.User.getTableName() as string}" AS u LEFT JOIN "${models.TherapistProfile.getTableName() as string}" AS p ON p."userId" = u."id" WHERE u."id" = ?`
+  const userTable = `"${models.User.getTableName() as string}" AS u`
+  const profileJoin = `LEFT JOIN "${models.TherapistProfile.getTableName() as string}" AS p ON p."userId" = u."id"`
+  const byId = `SELECT ${select} FROM ${userTable} ${profileJoin} WHERE u."id" = ?`
   const include = [{ model: models.TherapistProfile, as: 'therapistProfile' }]
-  return async (id: string): Promise<User | null> => {
-    const [row] = await plainSelect<Row>(models.User.sequelize!, sql, [id])
-    if (!row) return null
+  const sequelize = models.User.sequelize!
+  const handed = new Map<string, User>()
+
+  const fromRow = (row: Row): User => {
     const profile = row['p.id'] === null || row['p.id'] === undefined ? null : valuesOf(row, profileCols)
     return models.User.build({ ...valuesOf(row, userCols), therapistProfile: profile } as never, { isNewRecord: false, raw: true, include })
   }
+
+  return {
+    async load(id: string): Promise<User | null> {
+      const [row] = await plainSelect<Row>(sequelize, byId, [id])
+      return row ? fromRow(row) : null
+    },
+    /** The session's stored data (JSON text) or null, keeping its user for `take`. */
+    async readSession(sessionTable: string, sid: string): Promise<string | null> {
+      const sql = `SELECT s."data" AS "s.data", ${select} FROM "${sessionTable}" AS s LEFT JOIN ${userTable} ON u."id" = s."userId" ${profileJoin} WHERE s."sid" = ?`
+      const [row] = await plainSelect<Row>(sequelize, sql, [sid])
+      if (!row) return null
+      if (row['u.id'] !== null && row['u.id'] !== undefined) {
+        handed.set(sid, fromRow(row))
+        setImmediate(() => handed.delete(sid))
+      }
+      return row['s.data'] as string
+    },
+    /** The user read with this request's session, if it is the one the session names. */
+    take(sid: string | undefined, id: string): User | undefined {
+      if (!sid) return undefined
+      const user = handed.get(sid)
+      handed.delete(sid)
+      return user && user.id === id ? user : undefined
+    },
+  }
 }
+
+export type SessionUsers = ReturnType<typeof sessionUsers>

@@ -1,13 +1,14 @@
+import type { IncomingMessage } from 'node:http'
 import { Passport } from 'passport'
 import { Strategy as LocalStrategy } from 'passport-local'
 import type { Models } from '../db/associations'
 import { randomBytes } from 'node:crypto'
-import { sessionUserLoader } from './loadSessionUser'
+import { sessionUsers, type SessionUsers } from './loadSessionUser'
 import { hashPassword, verifyPassword } from './password'
 
 
 /** A passport instance of the app's own: the session holds only the user id, and the user is loaded on every request. */
-export function createPassport(models: Models, scryptCost: number) {
+export function createPassport(models: Models, scryptCost: number, users: SessionUsers = sessionUsers(models)) {
   const passport = new Passport()
   // Checking an unknown address against a real hash of the same cost makes it answer as slowly as a wrong password.
   let dummyHash: Promise<string> | undefined
@@ -24,9 +25,11 @@ export function createPassport(models: Models, scryptCost: number) {
     }),
   )
   passport.serializeUser((user, done) => done(null, user.id))
-  const loadUser = sessionUserLoader(models)
-  passport.deserializeUser((id: string, done) => {
-    loadUser(id)
+  // Three parameters: passport then passes the request first, so the user the session read brought along can be used.
+  passport.deserializeUser((req: IncomingMessage, id: string, done: (err: unknown, user?: Express.User | false) => void) => {
+    const handed = users.take((req as { sessionID?: string }).sessionID, id)
+    if (handed) return done(null, handed.disabledAt ? false : handed)
+    users.load(id)
       // false signs the session out: a disabled or deleted account loses its rights on the next request.
       .then((user) => done(null, user && !user.disabledAt ? user : false))
       .catch(done)

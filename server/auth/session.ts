@@ -6,6 +6,7 @@ import session from 'express-session'
 import type { Sequelize } from 'sequelize'
 import type { Config } from '../config/env'
 import { plainSelect } from '../db/plainSelect'
+import type { SessionUsers } from './loadSessionUser'
 
 const SequelizeStore = SequelizeStoreInit(session.Store)
 
@@ -34,7 +35,7 @@ export function sessionSecret(config: Readonly<Config>): string {
   }
 }
 
-export function createSessionMiddleware(config: Readonly<Config>, sequelize: Sequelize) {
+export function createSessionMiddleware(config: Readonly<Config>, sequelize: Sequelize, users?: SessionUsers) {
   const store = new SequelizeStore({
     db: sequelize,
     table: 'Session',
@@ -49,11 +50,12 @@ export function createSessionMiddleware(config: Readonly<Config>, sequelize: Seq
   // instead changes the session at most once a minute, and that save renews the row's expiry.
   store.touch = (_sid, _session, done) => done?.(null)
   // The read on every request, as the store's own get (the row's data; expiry is left to the cookie and the tidy-up), as
-  // one plain query: the store's findOne costs a PRAGMA lookup and per-column work on SQLite besides the statement.
-  const table = `"${String((store as unknown as { sessionModel: { getTableName(): unknown } }).sessionModel.getTableName())}"`
+  // one plain statement that also brings the signed-in user for passport (auth/loadSessionUser.ts): the store's findOne
+  // and a separate user query cost a PRAGMA lookup and per-column work each on SQLite besides the statements.
+  const table = String((store as unknown as { sessionModel: { getTableName(): unknown } }).sessionModel.getTableName())
   store.get = (sid, done) => {
-    plainSelect<{ data: string }>(sequelize, `SELECT "data" FROM ${table} WHERE "sid" = ?`, [sid])
-      .then(([row]) => done(null, row ? (JSON.parse(row.data) as session.SessionData) : null), (err: unknown) => done(err))
+    const read = users ? users.readSession(table, sid) : plainSelect<{ data: string }>(sequelize, `SELECT "data" FROM "${table}" WHERE "sid" = ?`, [sid]).then(([row]) => row?.data ?? null)
+    read.then((data) => done(null, data === null ? null : (JSON.parse(data) as session.SessionData)), (err: unknown) => done(err))
   }
   const middleware = session({
     name: 'rungs.sid',

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
 import { caseloadRowSchema, type CaseloadRow } from '../../shared/schemas/prep.schema'
+import { sessionUsers } from '../../server/auth/loadSessionUser'
 import { caseloadCache, caseloadFingerprint } from '../../server/modules/prep/caseloadCache'
 import { caseload } from '../../server/modules/prep/prep.service'
 import { agentWithCsrf, makeTestApp, type TestApp } from '../helpers/testApp'
@@ -297,5 +298,28 @@ describe('the cached caseload follows every write', () => {
     expect(await caseloadFingerprint(t.deps, b.th.user.id)).toBe(before)
     expect((await routeRows(b.therapist)).map((r) => r.newSinceLastSession)).toEqual([0])
     expect((await routeRows(a.therapist)).map((r) => r.newSinceLastSession)).toEqual([1])
+  })
+})
+
+describe('the per-request reads in front of the caseload', () => {
+  it('brings the signed-in user with the session row, equal to findByPk, and only for the user the session names', async () => {
+    const th = await makeTherapist(t, 'Pasco Reed')
+    await signedInAs(t, th)
+    const rows = await t.deps.models.Session.findAll({ where: { userId: th.user.id } })
+    expect(rows).toHaveLength(1)
+    const sid = rows[0]!.sid
+
+    const users = sessionUsers(t.deps.models)
+    const data = await users.readSession(String(t.deps.models.Session.getTableName()), sid)
+    expect(JSON.parse(data!).passport.user).toBe(th.user.id)
+    expect(users.take(sid, randomUUID())).toBeUndefined()
+    await users.readSession(String(t.deps.models.Session.getTableName()), sid)
+    const handed = users.take(sid, th.user.id)!
+    const found = await t.deps.models.User.findByPk(th.user.id, { include: [{ model: t.deps.models.TherapistProfile, as: 'therapistProfile' }] })
+    expect(handed.get({ plain: true })).toEqual(found!.get({ plain: true }))
+    expect(handed.isNewRecord).toBe(false)
+    // Taken once: a second take for the same session finds nothing.
+    expect(users.take(sid, th.user.id)).toBeUndefined()
+    expect(await users.readSession(String(t.deps.models.Session.getTableName()), 'no-such-session')).toBeNull()
   })
 })
