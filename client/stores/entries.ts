@@ -4,7 +4,10 @@ import { useLiveQuery } from '@/composables/useLiveQuery'
 import { countJournalEntries, createEntry, getEntry, recentEntries, restoreEntry, tagsInUse, trashEntry } from '@/db/entriesRepository'
 import { queueShare, queueWithdraw, updateEntryAndRequeue } from '@/db/outboxRepository'
 import { requestPersistentStorage } from '@/db/storageRepository'
-import { kickOutbox } from '@/sync/outboxRunner'
+
+// The sending code (the share API and its zod schemas) loads on the first change that may need sending; until the
+// outbox has been started after a sign-in, a kick does nothing anyway.
+const kickOutbox = (): Promise<void> => import('@/sync/outboxRunner').then((m) => m.kickOutbox(), () => undefined)
 
 /** The journal on this device: recent entries, tags in use, and the write path (Dexie first, visible at once). */
 export const useEntriesStore = defineStore('entries', () => {
