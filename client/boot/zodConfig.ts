@@ -8,3 +8,5 @@
 // checks that zod still reads it.
 const holder = globalThis as { __zod_globalConfig?: { jitless?: boolean } }
 Object.assign((holder.__zod_globalConfig ??= {}), { jitless: true })
+// An ES module (not a script), so it is imported once for its effect.
+export {}

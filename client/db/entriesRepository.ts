@@ -1,7 +1,7 @@
 import { searchWords } from '@shared/content/searchWords'
 import type { Entry, EntryInput, EntryKind, entrySchema as EntrySchema } from '@shared/schemas/entry.schema'
 import { db } from './db'
-import { loadEntrySchemas } from './entrySchemas'
+import { loadedEntrySchemas, loadEntrySchemas } from './entrySchemas'
 import { entryWords } from './entryWords'
 import { isJournalKind, journalIndex, journalKinds } from './journalIndex'
 import type { StoredEntry } from './RungsDB'
@@ -35,8 +35,9 @@ export async function createEntry(input: EntryInput, now = Date.now()): Promise<
 
 /** Saves an edit: the version rises by one so a later share can tell old from new. */
 export async function updateEntry(id: string, patch: Partial<EntryInput>, now = Date.now()): Promise<Entry> {
-  // Loaded before the transaction: awaiting anything but IndexedDB inside it would let it commit early.
-  const { entryInputSchema, entrySchema } = await loadEntrySchemas()
+  // Loaded before the transaction: awaiting anything but IndexedDB inside one would end it. A caller that wraps this in
+  // its own transaction (updateEntryAndRequeue) has loaded them already, so nothing is awaited there.
+  const { entryInputSchema, entrySchema } = loadedEntrySchemas() ?? (await loadEntrySchemas())
   return db.transaction('rw', db.entries, async () => {
     const current = await db.entries.get(id)
     if (!current) throw new Error('That entry is no longer on this device.')
