@@ -7,6 +7,8 @@ import { useAppLockStore } from '@/stores/appLock'
  * later never waits for the network; a device without a lock never needs it on the first screen.
  */
 export const loadLockScreen = () => import('@/components/AppLockScreen.vue')
+// With it, the code that checks a passcode (db/appLockRepository.ts loads it on first use), so unlocking never waits either.
+const warmLock = () => Promise.all([loadLockScreen(), import('@/backup/backupCrypto')]).catch(() => undefined)
 
 function whenIdle(run: () => void): void {
   if (typeof requestIdleCallback === 'function') requestIdleCallback(run, { timeout: 5_000 })
@@ -21,11 +23,12 @@ export async function bootAppLock(): Promise<void> {
   const lock = useAppLockStore()
   await lock.load().catch(() => undefined)
   lock.watchPage()
+  // Only the screen is awaited: the passcode check (with zod, through the backup code) follows while the page is idle.
   if (lock.locked) await loadLockScreen().catch(() => undefined)
   watch(
     () => lock.enabled,
     (on) => {
-      if (on) whenIdle(() => void loadLockScreen().catch(() => undefined))
+      if (on) whenIdle(() => void warmLock())
     },
     { immediate: true },
   )
