@@ -37,7 +37,7 @@ function runtimeImports(file: string): string[] {
 /** Every module reached from the first route by static run-time imports, with the chain that reached it. */
 function firstRouteGraph(): Map<string, string[]> {
   const seen = new Map<string, string[]>()
-  const queue = FIRST_ROUTE.map((f) => [path.join(root, f), [f]] as const)
+  const queue: [string, string[]][] = FIRST_ROUTE.map((f) => [path.join(root, f), [f]])
   while (queue.length) {
     const [file, chain] = queue.shift()!
     if (seen.has(file)) continue
