@@ -14,7 +14,8 @@ export default defineConfig({
     },
   },
   plugins: [
-    vue({ template: { transformAssetUrls } }),
+    // Every component (Rungs' and Quasar's) uses setup(), so Vue's Options API code is left out of the build.
+    vue({ template: { transformAssetUrls }, features: { optionsAPI: false } }),
     // After vue(), as the Quasar plugin requires. Brand colours live in client/css/brand.css as CSS variables,
     // so the prebuilt Quasar CSS is used and no sass compiler is needed.
     quasar({ sassVariables: false }),

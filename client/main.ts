@@ -28,5 +28,6 @@ bootDeviceSettings()
 bootJournal()
 bootSync()
 app.use(router)
-// The lock is decided before the first paint; until then index.html's static Help now block stays on screen.
-void bootAppLock().finally(() => app.mount('#app'))
+// The lock is decided before the first paint, and the first route's code is loaded (the router starts navigating at
+// app.use), so the app replaces index.html's static Help now block with a whole screen, never with a blank one.
+void Promise.allSettled([bootAppLock(), router.isReady()]).finally(() => app.mount('#app'))

@@ -1,5 +1,14 @@
-import { apiErrorSchema } from '@shared/schemas/error.schema'
 import type { ZodType } from 'zod'
+
+// The error shape (and zod with it) is loaded when the first answer fails, so a screen that makes no request never
+// carries zod; a failed request already waited for the network.
+async function readApiError(status: number, data: unknown): Promise<ApiError> {
+  const schema = await import('@shared/schemas/error.schema').then((m) => m.apiErrorSchema, () => undefined)
+  const parsed = schema?.safeParse(data)
+  return parsed?.success
+    ? new ApiError(status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details)
+    : new ApiError(status, 'unexpected', 'The server answered in a way Rungs did not expect. Please try again.')
+}
 
 /** An API failure with the server's code and plain message; status 0 means the network could not be reached. */
 export class ApiError extends Error {
@@ -51,10 +60,7 @@ export async function request<T>(method: string, url: string, body?: unknown, sc
   }
   const data: unknown = res.status === 204 ? undefined : await res.json().catch(() => undefined)
   if (!res.ok) {
-    const parsed = apiErrorSchema.safeParse(data)
-    const err = parsed.success
-      ? new ApiError(res.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details)
-      : new ApiError(res.status, 'unexpected', 'The server answered in a way Rungs did not expect. Please try again.')
+    const err = await readApiError(res.status, data)
     if (err.code === 'csrf' && retryCsrf) {
       csrfToken = undefined
       return request(method, url, body, schema, false)
@@ -78,10 +84,7 @@ export async function download(url: string, fallbackName: string): Promise<void>
     throw new ApiError(0, 'offline', 'Rungs could not reach the server. Check your connection and try again.')
   }
   if (!res.ok) {
-    const parsed = apiErrorSchema.safeParse(await res.json().catch(() => undefined))
-    const err = parsed.success
-      ? new ApiError(res.status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details)
-      : new ApiError(res.status, 'unexpected', 'The server answered in a way Rungs did not expect. Please try again.')
+    const err = await readApiError(res.status, await res.json().catch(() => undefined))
     if (res.status === 401) onUnauthenticated?.(err)
     throw err
   }

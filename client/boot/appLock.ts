@@ -1,4 +1,19 @@
+import { watch } from 'vue'
 import { useAppLockStore } from '@/stores/appLock'
+
+/**
+ * The lock screen (with its Help now and safety plan) as its own chunk. It is fetched before the app mounts when the
+ * app starts locked, so it paints in the first render, and while the page is idle once the lock is on, so an idle lock
+ * later never waits for the network; a device without a lock never needs it on the first screen.
+ */
+export const loadLockScreen = () => import('@/components/AppLockScreen.vue')
+// With it, the code that checks a passcode (db/appLockRepository.ts loads it on first use), so unlocking never waits either.
+const warmLock = () => Promise.all([loadLockScreen(), import('@/backup/backupCrypto')]).catch(() => undefined)
+
+function whenIdle(run: () => void): void {
+  if (typeof requestIdleCallback === 'function') requestIdleCallback(run, { timeout: 5_000 })
+  else setTimeout(run, 1_000)
+}
 
 /**
  * Decides the app lock before the app mounts, so a person's page never paints before the lock covers it. If the
@@ -8,4 +23,13 @@ export async function bootAppLock(): Promise<void> {
   const lock = useAppLockStore()
   await lock.load().catch(() => undefined)
   lock.watchPage()
+  // Only the screen is awaited: the passcode check (with zod, through the backup code) follows while the page is idle.
+  if (lock.locked) await loadLockScreen().catch(() => undefined)
+  watch(
+    () => lock.enabled,
+    (on) => {
+      if (on) whenIdle(() => void warmLock())
+    },
+    { immediate: true },
+  )
 }

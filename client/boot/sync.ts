@@ -1,8 +1,10 @@
 import { watch } from 'vue'
 import { hasActiveLink } from '@/db/linksRepository'
-import { useLinksStore } from '@/stores/links'
 import { useSessionStore } from '@/stores/session'
-import { startOutbox, stopOutbox } from '@/sync/outboxRunner'
+
+// The outbox, the links store and the share API (with the zod schemas they parse with) load only once this device is
+// signed in: a device that never signs in never fetches them, and the first screen paints without them.
+const loadSending = () => Promise.all([import('@/stores/links'), import('@/sync/outboxRunner')])
 
 /**
  * Starts the outbox of shares once this device is signed in, and only then (DESIGN.md, Who-am-I: a device never signed in,
@@ -10,20 +12,28 @@ import { startOutbox, stopOutbox } from '@/sync/outboxRunner'
  */
 export function bootSync(): void {
   const session = useSessionStore()
-  const links = useLinksStore()
-  const canSend = async () => session.status === 'signedIn' && !links.paused && (await hasActiveLink())
+  let sending: ReturnType<typeof loadSending> | undefined
 
   watch(
     () => session.status,
     (status) => {
       if (status === 'signedIn') {
-        links.resume()
-        void links
-          .refresh()
-          .catch(() => undefined)
-          .finally(() => startOutbox({ canSend, onReport: links.report }))
+        // A failed load (a new version replaced the files) is tried again at the next sign-in.
+        sending ??= loadSending().catch((err: unknown) => {
+          sending = undefined
+          throw err
+        })
+        void sending.then(([{ useLinksStore }, { startOutbox }]) => {
+          const links = useLinksStore()
+          const canSend = async () => session.status === 'signedIn' && !links.paused && (await hasActiveLink())
+          links.resume()
+          return links
+            .refresh()
+            .catch(() => undefined)
+            .finally(() => startOutbox({ canSend, onReport: links.report }))
+        }, () => undefined)
       } else if (status === 'anonymous') {
-        stopOutbox()
+        void sending?.then(([, { stopOutbox }]) => stopOutbox(), () => undefined)
       }
     },
   )

@@ -1,5 +1,4 @@
 import type { LockIdleMinutes } from '@shared/schemas/appLock.schema'
-import { base64ToBytes, bytesToBase64 } from '@/backup/backupCrypto'
 import { db } from './db'
 import type { AppLockRecord } from './RungsDB'
 import { readSetting, writeSetting } from './settingsRepository'
@@ -22,6 +21,9 @@ function sameBytes(a: Uint8Array, b: Uint8Array): boolean {
   return diff === 0
 }
 
+// The base64 helpers live with the backup code (and its zod schemas), which only setting or checking a passcode needs.
+const backupCrypto = () => import('@/backup/backupCrypto')
+
 export const readAppLock = (): Promise<AppLockRecord | undefined> => readSetting('appLock')
 
 /**
@@ -29,6 +31,7 @@ export const readAppLock = (): Promise<AppLockRecord | undefined> => readSetting
  * Tests may pass fewer iterations to stay fast; the app always uses the default.
  */
 export async function setAppLock(passcode: string, idleMinutes: LockIdleMinutes, iterations = LOCK_ITERATIONS, now = Date.now()): Promise<AppLockRecord> {
+  const { bytesToBase64 } = await backupCrypto()
   const salt = globalThis.crypto.getRandomValues(new Uint8Array(SALT_BYTES))
   const hash = await derive(passcode, salt, iterations)
   const record: AppLockRecord = { hash: bytesToBase64(hash), salt: bytesToBase64(salt), iterations, digits: /^\d+$/.test(passcode), idleMinutes, setAt: now }
@@ -52,6 +55,7 @@ export async function removeAppLock(): Promise<void> {
 export async function checkPasscode(passcode: string): Promise<boolean> {
   const record = await readAppLock()
   if (!record) return false
+  const { base64ToBytes } = await backupCrypto()
   const hash = await derive(passcode, base64ToBytes(record.salt), record.iterations)
   return sameBytes(hash, base64ToBytes(record.hash))
 }

@@ -1,6 +1,7 @@
-import { entrySchema, type Entry } from '@shared/schemas/entry.schema'
+import type { Entry } from '@shared/schemas/entry.schema'
 import { db } from './db'
 import { fromStored } from './entriesRepository'
+import { loadEntrySchemas } from './entrySchemas'
 import { entryWords } from './entryWords'
 import type { StoredEntry } from './RungsDB'
 import { readSetting, writeSetting } from './settingsRepository'
@@ -42,6 +43,7 @@ function newestById(entries: Entry[]): Entry[] {
  * file again changes nothing.
  */
 export async function mergeBackup(entries: Entry[]): Promise<MergeResult> {
+  const { entrySchema } = await loadEntrySchemas()
   const incoming = newestById(entries.map((e) => entrySchema.parse(e)))
   return db.transaction('rw', db.entries, async () => {
     const current = await db.entries.bulkGet(incoming.map((e) => e.id))

@@ -1,6 +1,7 @@
 import { searchWords } from '@shared/content/searchWords'
-import { entryInputSchema, entrySchema, type Entry, type EntryInput, type EntryKind } from '@shared/schemas/entry.schema'
+import type { Entry, EntryInput, EntryKind, entrySchema as EntrySchema } from '@shared/schemas/entry.schema'
 import { db } from './db'
+import { loadedEntrySchemas, loadEntrySchemas } from './entrySchemas'
 import { entryWords } from './entryWords'
 import { isJournalKind, journalIndex, journalKinds } from './journalIndex'
 import type { StoredEntry } from './RungsDB'
@@ -13,7 +14,7 @@ function withoutUndefined<T extends object>(o: T): T {
   return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as T
 }
 
-function toStored(entry: Entry): StoredEntry {
+function toStored(entrySchema: typeof EntrySchema, entry: Entry): StoredEntry {
   const parsed = entrySchema.parse(entry)
   return { ...withoutUndefined(parsed), wants: parsed.wants.map(withoutUndefined), words: entryWords(parsed) }
 }
@@ -25,19 +26,23 @@ export function fromStored({ words: _words, ...entry }: StoredEntry): Entry {
 
 /** Creates an entry from what the person filled in; returns it with its new id and version 1. */
 export async function createEntry(input: EntryInput, now = Date.now()): Promise<Entry> {
+  const { entryInputSchema, entrySchema } = await loadEntrySchemas()
   const data = entryInputSchema.parse(input)
   const entry: Entry = { ...data, id: crypto.randomUUID(), createdAt: data.createdAt ?? now, updatedAt: now, version: 1, shares: [] }
-  await db.entries.add(toStored(entry))
+  await db.entries.add(toStored(entrySchema, entry))
   return entry
 }
 
 /** Saves an edit: the version rises by one so a later share can tell old from new. */
 export async function updateEntry(id: string, patch: Partial<EntryInput>, now = Date.now()): Promise<Entry> {
+  // Loaded before the transaction: awaiting anything but IndexedDB inside one would end it. A caller that wraps this in
+  // its own transaction (updateEntryAndRequeue) has loaded them already, so nothing is awaited there.
+  const { entryInputSchema, entrySchema } = loadedEntrySchemas() ?? (await loadEntrySchemas())
   return db.transaction('rw', db.entries, async () => {
     const current = await db.entries.get(id)
     if (!current) throw new Error('That entry is no longer on this device.')
     const next: Entry = { ...fromStored(current), ...entryInputSchema.partial().parse(patch), id, updatedAt: now, version: current.version + 1 }
-    await db.entries.put(toStored(next))
+    await db.entries.put(toStored(entrySchema, next))
     return next
   })
 }

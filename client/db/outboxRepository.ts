@@ -1,6 +1,7 @@
 import type { Entry, EntryInput } from '@shared/schemas/entry.schema'
 import { db } from './db'
 import { fromStored, updateEntry } from './entriesRepository'
+import { loadEntrySchemas } from './entrySchemas'
 import type { OutboxRow } from './RungsDB'
 
 type ShareState = Entry['shares'][number]['state']
@@ -52,6 +53,8 @@ export async function queueWithdraw(entryId: string, linkId: string, now = Date.
  * (or waiting to be shared) with. The one row per entry and link is replaced, so autosaved edits never flood the outbox.
  */
 export async function updateEntryAndRequeue(id: string, patch: Partial<EntryInput>, now = Date.now()): Promise<Entry> {
+  // Before the transaction, so updateEntry inside it awaits only IndexedDB.
+  await loadEntrySchemas()
   return db.transaction('rw', db.entries, db.outbox, async () => {
     const next = await updateEntry(id, patch, now)
     const follow = next.shares.filter((s) => FOLLOWS_EDITS.includes(s.state))

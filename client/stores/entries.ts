@@ -2,9 +2,14 @@ import { defineStore } from 'pinia'
 import type { Entry, EntryInput } from '@shared/schemas/entry.schema'
 import { useLiveQuery } from '@/composables/useLiveQuery'
 import { countJournalEntries, createEntry, getEntry, recentEntries, restoreEntry, tagsInUse, trashEntry } from '@/db/entriesRepository'
-import { queueShare, queueWithdraw, updateEntryAndRequeue } from '@/db/outboxRepository'
 import { requestPersistentStorage } from '@/db/storageRepository'
-import { kickOutbox } from '@/sync/outboxRunner'
+
+// The outbox repository (where an edit and its outbox row are written in one transaction) loads with the first edit,
+// share or delete; a new moment never needs it.
+const outbox = () => import('@/db/outboxRepository')
+// The sending code (the share API and its zod schemas) loads on the first change that may need sending; until the
+// outbox has been started after a sign-in, a kick does nothing anyway.
+const kickOutbox = (): Promise<void> => import('@/sync/outboxRunner').then((m) => m.kickOutbox(), () => undefined)
 
 /** The journal on this device: recent entries, tags in use, and the write path (Dexie first, visible at once). */
 export const useEntriesStore = defineStore('entries', () => {
@@ -21,20 +26,20 @@ export const useEntriesStore = defineStore('entries', () => {
 
   /** Saves an edit; a shared entry's copy follows it (one outbox row per link, replaced by each newer version). */
   async function update(id: string, patch: Partial<EntryInput>): Promise<Entry> {
-    const entry = await updateEntryAndRequeue(id, patch)
+    const entry = await (await outbox()).updateEntryAndRequeue(id, patch)
     if (entry.shares.some((s) => s.state === 'queued')) void kickOutbox()
     return entry
   }
 
   /** Shares a copy with a linked therapist: written to the device first (waiting to send), then sent when possible. */
   async function share(entryId: string, linkId: string): Promise<void> {
-    await queueShare(entryId, linkId)
+    await (await outbox()).queueShare(entryId, linkId)
     void kickOutbox()
   }
 
   /** Takes the copy back from the therapist; what they already read may be in their own records. */
   async function withdraw(entryId: string, linkId: string): Promise<void> {
-    await queueWithdraw(entryId, linkId)
+    await (await outbox()).queueWithdraw(entryId, linkId)
     void kickOutbox()
   }
 
@@ -45,7 +50,10 @@ export const useEntriesStore = defineStore('entries', () => {
   async function remove(id: string): Promise<{ undo: () => Promise<boolean>; withdrew: number }> {
     const entry = await getEntry(id)
     const held = entry?.shares.filter((s) => s.state === 'queued' || s.state === 'shared' || s.state === 'failed') ?? []
-    for (const s of held) await queueWithdraw(id, s.linkId)
+    if (held.length) {
+      const { queueWithdraw } = await outbox()
+      for (const s of held) await queueWithdraw(id, s.linkId)
+    }
     await trashEntry(id)
     if (held.length) void kickOutbox()
     return { undo: () => restoreEntry(id), withdrew: held.length }

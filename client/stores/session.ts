@@ -2,10 +2,14 @@ import { defineStore } from 'pinia'
 import { computed, ref, shallowRef } from 'vue'
 import type { SignIn } from '@shared/schemas/auth.schema'
 import type { Me } from '@shared/schemas/user.schema'
-import * as authApi from '@/api/auth'
 import { ApiError, setCsrfToken } from '@/api/http'
-import { fetchMe, type MeResponse } from '@/api/me'
+import type { MeResponse } from '@/api/me'
 import { readSetting, writeSetting } from '@/db/settingsRepository'
+
+// The account calls parse their answers with zod; a device that has never signed in never needs them, so they load
+// with the first call instead of with the first screen.
+const authApi = () => import('@/api/auth')
+const meApi = () => import('@/api/me')
 
 type Status = 'unknown' | 'anonymous' | 'signedIn' | 'unreachable'
 
@@ -22,7 +26,7 @@ export const useSessionStore = defineStore('session', () => {
 
   async function refresh(): Promise<void> {
     try {
-      const res = await fetchMe()
+      const res = await (await meApi()).fetchMe()
       me.value = res.user
       features.value = res.features
       status.value = 'signedIn'
@@ -42,7 +46,7 @@ export const useSessionStore = defineStore('session', () => {
   }
 
   async function signIn(input: SignIn): Promise<Me> {
-    me.value = await authApi.signIn(input)
+    me.value = await (await authApi()).signIn(input)
     expired.value = false
     status.value = 'signedIn'
     await writeSetting('signedInBefore', true)
@@ -51,14 +55,14 @@ export const useSessionStore = defineStore('session', () => {
   }
 
   async function signOut(): Promise<void> {
-    await authApi.signOut()
+    await (await authApi()).signOut()
     me.value = null
     status.value = 'anonymous'
   }
 
   /** Signs out on every device, this one included. The journal on this device stays. */
   async function signOutEverywhere(): Promise<void> {
-    await authApi.signOutEverywhere()
+    await (await authApi()).signOutEverywhere()
     me.value = null
     status.value = 'anonymous'
   }

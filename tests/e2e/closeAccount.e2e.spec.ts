@@ -46,6 +46,7 @@ describe('closing an account in Chromium', () => {
     expect(await dialog.textContent()).toContain('The journal on this device stays')
     expect(await dialog.textContent()).toContain('already read or printed may be in their own records')
     expect(await seriousViolations(page), 'the close-account dialog').toEqual([])
+    await page.screenshot({ path: '.screens/close-account-dialog-390.png' })
 
     // A wrong password is refused and nothing is removed.
     await page.locator('[data-test=close-account-password]').fill('not my password')

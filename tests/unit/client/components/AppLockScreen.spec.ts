@@ -4,6 +4,7 @@ import { Dialog, Notify, Quasar } from 'quasar'
 import { beforeEach, describe, expect, it } from 'vitest'
 import { createMemoryHistory, createRouter } from 'vue-router'
 import App from '@/App.vue'
+import { loadLockScreen } from '@/boot/appLock'
 import { db } from '@/db/db'
 import { checkPasscode, readAppLock, setAppLock } from '@/db/appLockRepository'
 import { createEntry } from '@/db/entriesRepository'
@@ -36,6 +37,8 @@ async function mountApp(path: string) {
   setActivePinia(pinia)
   await useDeviceSettingsStore().setRegion('UK')
   await useAppLockStore().load()
+  // boot/appLock.ts fetches the lock screen before mounting when the app starts locked.
+  if (useAppLockStore().locked) await loadLockScreen()
   const router = createRouter({ history: createMemoryHistory(), routes })
   await router.push(path)
   await router.isReady()

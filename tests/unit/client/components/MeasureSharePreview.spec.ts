@@ -2,10 +2,8 @@ import { flushPromises, mount } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { Quasar } from 'quasar'
 import { describe, expect, it } from 'vitest'
-import { createMemoryHistory, createRouter } from 'vue-router'
 import type { Entry } from '@shared/schemas/entry.schema'
 import SharePreviewDialog from '@/components/SharePreviewDialog.vue'
-import { routes } from '@/router/routes'
 
 function phq9(item9: 0 | 1): Entry {
   const at = 1_760_000_000_000
@@ -16,8 +14,7 @@ async function preview(entry: Entry): Promise<string> {
   document.body.innerHTML = ''
   const pinia = createPinia()
   setActivePinia(pinia)
-  const router = createRouter({ history: createMemoryHistory(), routes })
-  const w = mount(SharePreviewDialog, { props: { entry, therapistName: 'Dr Ines Marlow', modelValue: true }, global: { plugins: [Quasar, pinia, router] }, attachTo: document.body })
+  const w = mount(SharePreviewDialog, { props: { entry, therapistName: 'Dr Ines Marlow', modelValue: true }, global: { plugins: [Quasar, pinia] }, attachTo: document.body })
   await flushPromises()
   await new Promise((r) => setTimeout(r, 50))
   const text = document.body.textContent ?? ''
