@@ -18,8 +18,8 @@ const SEQUENTIAL = 10
 const RATIO_BUDGET = 0.25
 const P99_BUDGET_MS = 50
 
-async function startBare(port: number): Promise<{ stop(): Promise<void> }> {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join('tests', 'bench', 'bareJsonServer.ts')], { cwd: repoRoot, stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, PORT: String(port) } })
+async function startBare(port: number, bodyBytes: number): Promise<{ stop(): Promise<void> }> {
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join('tests', 'bench', 'bareJsonServer.ts')], { cwd: repoRoot, stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, PORT: String(port), BODY_BYTES: String(bodyBytes) } })
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()))
   await new Promise<void>((resolve, reject) => {
     child.stdout!.setEncoding('utf8').on('data', (d: string) => d.includes('listening') && resolve())
@@ -44,21 +44,21 @@ export async function benchCaseload(tmp: string, track: (p: RungsProcess | undef
   await seedBench(dataDir, PEOPLE, { caseload: true })
   const server = await startRungsProcess({ dataDir, port: await freePort() })
   track(server)
-  const barePort = await freePort()
-  const bare = await startBare(barePort)
-  onClose(bare.stop)
-
   const therapist = new BenchClient(server.origin)
   await therapist.signIn(THERAPIST.email, THERAPIST.password)
   const probe = await therapist.send('GET', '/api/therapist/caseload')
   const caseload = (probe.body.caseload ?? []) as { measures: { phq9: unknown; gad7: unknown } }[]
   const withMeasures = caseload.filter((r) => r.measures.phq9 && r.measures.gad7).length
   const bodyBytes = Buffer.byteLength(JSON.stringify(probe.body))
+  const barePort = await freePort()
+  const bare = await startBare(barePort, bodyBytes)
+  onClose(bare.stop)
   const alone: number[] = []
   for (let i = 0; i < SEQUENTIAL; i++) alone.push((await therapist.send('GET', '/api/therapist/caseload')).ms)
 
   // Bare first, then the caseload: each gets the machine to itself while it runs.
   const bareRun = await cannon(`http://127.0.0.1:${barePort}/bare`)
+  const bareBodyRun = await cannon(`http://127.0.0.1:${barePort}/bare-body`)
   const caseRun = await cannon(`${server.origin}/api/therapist/caseload`, { cookie: therapist.sessionCookie, accept: 'application/json' })
   await bare.stop()
   await server.stop()
@@ -70,6 +70,7 @@ export async function benchCaseload(tmp: string, track: (p: RungsProcess | undef
   return [
     `Caseload API: GET /api/therapist/caseload, ${PEOPLE} people on it (${withMeasures} with PHQ-9 and GAD-7 columns, ${group(bodyBytes)} bytes of JSON), autocannon ${CONNECTIONS} connections × ${SECONDS} s`,
     row('Bare Express JSON route, same machine, own process (requests/s; p50 / p99)', `${group(bareRun.requests.average)}/s`, `   ${bareRun.latency.p50} / ${bareRun.latency.p99} ms`),
+    row(`  for scale: the bare app sending a prebuilt ${group(bodyBytes)}-byte body (requests/s; p50 / p99)`, `${group(bareBodyRun.requests.average)}/s`, `   ${bareBodyRun.latency.p50} / ${bareBodyRun.latency.p99} ms   ratio ${(bareBodyRun.requests.average / bareRun.requests.average).toFixed(3)}`),
     row(`Caseload, one request at a time (median / max of ${SEQUENTIAL})`, `${ms(percentile(alone, 50))} ms`, `   max ${ms(Math.max(...alone))} ms`),
     row('Caseload (requests/s; p50 / p99)', `${group(caseRun.requests.average)}/s`, `   ${caseRun.latency.p50} / ${caseRun.latency.p99} ms   ${group(caseRun.requests.total)} requests, ${non2xx(caseRun)} not 2xx`),
     row('Caseload throughput as a ratio to the bare route', ratio.toFixed(3), `   budget ≥ ${RATIO_BUDGET}${ratio < RATIO_BUDGET ? '   MISSES BUDGET' : ''}`),
