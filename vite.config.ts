@@ -66,7 +66,8 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: 'dom', root: fileURLToPath(new URL('.', import.meta.url)), include: ['tests/unit/client/**/*.spec.ts'], environment: 'happy-dom', setupFiles: ['tests/setup/dom.ts'] },
+        // Page tests click through whole flows and load chunks on first use; on a busy 2-core machine 5 s is too short.
+        test: { name: 'dom', root: fileURLToPath(new URL('.', import.meta.url)), include: ['tests/unit/client/**/*.spec.ts'], environment: 'happy-dom', setupFiles: ['tests/setup/dom.ts'], testTimeout: 15000 },
       },
       {
         extends: true,

@@ -6,7 +6,10 @@ import { defineComponent, h } from 'vue'
 import { createMemoryHistory, createRouter } from 'vue-router'
 import { db } from '@/db/db'
 import TugPage from '@/pages/TugPage.vue'
-import { routes } from '@/router/routes'
+import { RouteName } from '@/router/names'
+
+// The first save loads the entry schemas (a dynamic import), which on a busy machine takes a while.
+const WAIT = { timeout: 5000 }
 
 async function settle(ms = 30) {
   await flushPromises()
@@ -14,11 +17,15 @@ async function settle(ms = 30) {
   await flushPromises()
 }
 
+// Every route name as a plain stub: the app's lazy pages would keep loading after the test ends.
+const Stub = defineComponent({ render: () => h('div') })
+const routes = [{ path: '/', component: Stub }, ...Object.values(RouteName).map((name) => ({ path: `/${name}/:id?`, name, component: Stub }))]
+
 async function mountFlow() {
   const pinia = createPinia()
   setActivePinia(pinia)
   const router = createRouter({ history: createMemoryHistory(), routes })
-  await router.push('/tug')
+  await router.push({ name: RouteName.Tug })
   await router.isReady()
   // QPage lives inside a layout, as it does in the app.
   const Host = defineComponent({ render: () => h(QLayout, { view: 'hHh lpR fFf' }, () => h(QPageContainer, () => h(TugPage))) })
@@ -63,9 +70,13 @@ describe('the tug flow', () => {
     await click(wrapper, 'tug-next') // distress after
     expect(wrapper.find('[data-test=tug-picture]').exists() || wrapper.find('[data-test=tug-picture-no-pull]').exists()).toBe(true)
     await click(wrapper, 'tug-save')
-    await settle(50)
 
-    const [saved] = await db.entries.toArray()
+    // Saving loads the entry schemas on first use, so it is waited for rather than timed.
+    const saved = await vi.waitFor(async () => {
+      const [e] = await db.entries.toArray()
+      expect(e).toBeDefined()
+      return e
+    }, WAIT)
     expect(saved?.kind).toBe('tug')
     expect(saved?.body).toBe('Asked to stay late again')
     expect(saved?.wants.map((w) => w.text)).toEqual(['Go home on time', 'Be seen as reliable'])
@@ -73,7 +84,7 @@ describe('the tug flow', () => {
     expect(saved?.meetingPoint).toBe('Looking after my family')
     expect('distressBefore' in saved!).toBe(false)
     expect(await db.drafts.get('tug:new')).toBeUndefined()
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('entry'))
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('entry'), WAIT)
     wrapper.unmount()
   })
 
@@ -82,15 +93,17 @@ describe('the tug flow', () => {
     await first.wrapper.get('textarea[data-test=tug-describe]').setValue('Half way through')
     await click(first.wrapper, 'tug-next')
     await click(first.wrapper, 'tug-stop')
-    await settle(50)
-    const draft = await db.drafts.get('tug:new')
+    const draft = await vi.waitFor(async () => {
+      const d = await db.drafts.get('tug:new')
+      expect(d?.step).toBe('distressBefore')
+      return d
+    }, WAIT)
     expect(draft?.data.body).toBe('Half way through')
     expect(draft?.step).toBe('distressBefore')
     first.wrapper.unmount()
 
     const again = await mountFlow()
-    await settle(50)
-    expect(again.wrapper.find('[data-test=distress-slider]').exists()).toBe(true)
+    await vi.waitFor(() => expect(again.wrapper.find('[data-test=distress-slider]').exists()).toBe(true), WAIT)
     again.wrapper.unmount()
   })
 
@@ -99,16 +112,15 @@ describe('the tug flow', () => {
     await wrapper.get('textarea[data-test=tug-describe]').setValue('This is a lot')
     await click(wrapper, 'tug-too-much')
     await settle(50)
-    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('grounding'))
-    expect((await db.drafts.get('tug:new'))?.data.body).toBe('This is a lot')
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe('grounding'), WAIT)
+    await vi.waitFor(async () => expect((await db.drafts.get('tug:new'))?.data.body).toBe('This is a lot'), WAIT)
     wrapper.unmount()
   })
 
   it('shows the care card when distress after is higher than before', async () => {
     await db.drafts.put({ id: 'tug:new', kind: 'tug', data: { kind: 'tug', body: 'x', distressBefore: 30, distressAfter: 45, wants: [], backgroundThoughts: [], tags: [] }, step: 'distressAfter', updatedAt: Date.now() })
     const { wrapper } = await mountFlow()
-    await settle(50)
-    expect(wrapper.find('[data-test=distress-care]').exists()).toBe(true)
+    await vi.waitFor(() => expect(wrapper.find('[data-test=distress-care]').exists()).toBe(true), WAIT)
     wrapper.unmount()
   })
 })
