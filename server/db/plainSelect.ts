@@ -1,4 +1,5 @@
 import { QueryTypes, type Sequelize } from 'sequelize'
+import sqlite3 from 'sqlite3'
 
 interface SqliteStatement {
   all(params: unknown[], callback: (err: Error | null, rows: unknown[]) => void): void
@@ -6,7 +7,6 @@ interface SqliteStatement {
 }
 
 interface SqliteDatabase {
-  prepare(sql: string, callback?: (err: Error | null) => void): SqliteStatement
   close(callback?: (err: Error | null) => void): void
 }
 
@@ -45,8 +45,20 @@ function idleOn(db: SqliteDatabase): Idle {
 
 const closed = new WeakSet<SqliteDatabase>()
 
-function acquire(db: SqliteDatabase, sql: string): SqliteStatement {
-  return idleOn(db).get(sql)?.pop() ?? db.prepare(sql)
+type StatementClass = new (db: SqliteDatabase, sql: string, callback: (err: Error | null) => void) => SqliteStatement
+
+/**
+ * A statement from the idle list, or a newly prepared one once SQLite has compiled it. The driver's own `prepare` reports
+ * only failures, and a query queued on a statement that failed to compile is never answered, so the query waits for
+ * the compile (the driver's Statement constructor reports both).
+ */
+async function acquire(db: SqliteDatabase, sql: string): Promise<SqliteStatement> {
+  const idle = idleOn(db).get(sql)?.pop()
+  if (idle) return idle
+  const Statement = (sqlite3 as unknown as { Statement: StatementClass }).Statement
+  return new Promise((resolve, reject) => {
+    const statement = new Statement(db, sql, (err) => (err ? reject(err) : resolve(statement)))
+  })
 }
 
 function release(db: SqliteDatabase, sql: string, statement: SqliteStatement, ok: boolean): void {
@@ -70,7 +82,7 @@ function release(db: SqliteDatabase, sql: string, statement: SqliteStatement, ok
 export async function plainSelect<T extends object>(sequelize: Sequelize, sql: string, params: unknown[]): Promise<T[]> {
   if (sequelize.getDialect() !== 'sqlite') return sequelize.query<T>(sql, { replacements: params, type: QueryTypes.SELECT })
   const db = (await (sequelize.connectionManager as unknown as { getConnection(options: object): Promise<SqliteDatabase> }).getConnection({})) as SqliteDatabase
-  const statement = acquire(db, sql)
+  const statement = await acquire(db, sql)
   return new Promise<T[]>((resolve, reject) =>
     statement.all(params, (err, rows) => {
       release(db, sql, statement, !err)
