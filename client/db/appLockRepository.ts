@@ -2,7 +2,7 @@ import type { LockIdleMinutes } from '@shared/schemas/appLock.schema'
 import { db } from './db'
 import type { AppLockRecord } from './RungsDB'
 import { readSetting, writeSetting } from './settingsRepository'
-import { readStartupHint, writeStartupHint } from './startupHints'
+import { writeStartupHint } from './startupHints'
 
 // OWASP Password Storage Cheat Sheet's advice for PBKDF2-HMAC-SHA256, from memory (the same as backups).
 export const LOCK_ITERATIONS = 600_000
@@ -31,12 +31,6 @@ export async function readAppLock(): Promise<AppLockRecord | undefined> {
   writeStartupHint('lockSet', Boolean(record))
   return record
 }
-
-/**
- * Whether a lock is set, as mirrored at the last Dexie read or change: false lets the app mount before Dexie opens;
- * true or undefined (no mirror yet, or unreadable) means Dexie decides before anything shows.
- */
-export const lockSetHint = (): boolean | undefined => readStartupHint('lockSet')
 
 /**
  * Turns the lock on (or changes the passcode): stores a PBKDF2-SHA-256 hash with a fresh random salt, never the passcode.

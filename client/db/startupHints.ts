@@ -24,3 +24,27 @@ export function writeStartupHint(name: StartupHint, value: boolean | undefined):
     // Private modes and full storage: the next start asks Dexie, as before.
   }
 }
+
+let noDatabase: Promise<boolean> | undefined
+
+/**
+ * Whether this browser holds no Rungs database yet (a first visit, or the start after a wipe), asked once: main.ts asks
+ * before anything opens Dexie, since opening creates it. A browser that cannot tell answers false (ask Dexie).
+ */
+export function probeNoDatabase(name = 'rungs'): Promise<boolean> {
+  noDatabase ??= (async () => {
+    const list = await globalThis.indexedDB?.databases?.()
+    return Array.isArray(list) && !list.some((d) => d.name === name)
+  })().catch(() => false)
+  return noDatabase
+}
+
+/**
+ * A fact for the first paint: the hint when there is one; false on a browser with no Rungs database, where neither a
+ * lock nor an acknowledged notice can exist; otherwise undefined, and Dexie decides.
+ */
+export async function startupFact(name: StartupHint): Promise<boolean | undefined> {
+  const hint = readStartupHint(name)
+  if (hint !== undefined) return hint
+  return (await probeNoDatabase()) ? false : undefined
+}

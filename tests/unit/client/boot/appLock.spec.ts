@@ -1,6 +1,6 @@
 import { flushPromises } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
-import { beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { bootAppLock } from '@/boot/appLock'
 import { readAppLock, removeAppLock, setAppLock } from '@/db/appLockRepository'
 import { db } from '@/db/db'
@@ -82,5 +82,38 @@ describe('deciding the lock at start', () => {
     await expect.poll(() => lock.locked).toBe(true)
     await flushPromises()
     expect(readStartupHint('lockSet')).toBe(true)
+  })
+})
+
+describe('the start-up facts on a browser with no Rungs database yet', () => {
+  // probeNoDatabase asks once per page load, so each case loads the module afresh, as a new page would.
+  const freshHints = async () => {
+    vi.resetModules()
+    return import('@/db/startupHints')
+  }
+
+  it('says "no lock, notice not seen" without opening a database, and creates none', async () => {
+    db.close()
+    await new Promise((resolve, reject) => Object.assign(indexedDB.deleteDatabase('rungs'), { onsuccess: resolve, onerror: reject }))
+    const hints = await freshHints()
+    expect(await hints.startupFact('lockSet')).toBe(false)
+    expect(await hints.startupFact('firstRunSeen')).toBe(false)
+    expect((await indexedDB.databases()).map((d) => d.name)).not.toContain('rungs')
+  })
+
+  it('leaves the decision to Dexie when the database exists and there is no hint', async () => {
+    await setAppLock('2468', 5, FAST)
+    localStorage.clear()
+    const hints = await freshHints()
+    expect(await hints.startupFact('lockSet')).toBeUndefined()
+    expect(await hints.startupFact('firstRunSeen')).toBeUndefined()
+  })
+
+  it('goes by the hint when there is one', async () => {
+    writeStartupHint('firstRunSeen', true)
+    writeStartupHint('lockSet', true)
+    const hints = await freshHints()
+    expect(await hints.startupFact('firstRunSeen')).toBe(true)
+    expect(await hints.startupFact('lockSet')).toBe(true)
   })
 })
