@@ -17,8 +17,11 @@ import { bootDeviceSettings } from './boot/deviceSettings'
 import { bootHttp } from './boot/http'
 import { bootJournal } from './boot/journal'
 import { bootSync } from './boot/sync'
+import { probeNoDatabase } from './db/startupHints'
 import { router } from './router'
 
+// Asked before any boot file opens Dexie (which creates the database): a first visit then paints without waiting on it.
+void probeNoDatabase()
 const app = createApp(App)
 app.use(createPinia())
 app.use(Quasar, { plugins: { Notify, Dialog, Dark }, config: { notify: { position: 'top', timeout: 2500, group: false } } })

@@ -1,4 +1,5 @@
 import { watch } from 'vue'
+import { startupFact } from '@/db/startupHints'
 import { useAppLockStore } from '@/stores/appLock'
 
 /**
@@ -16,12 +17,16 @@ function whenIdle(run: () => void): void {
 }
 
 /**
- * Decides the app lock before the app mounts, so a person's page never paints before the lock covers it. If the
+ * Decides the app lock before the app mounts, so a person's page never paints before the lock covers it. When the
+ * start-up hint says no lock is set (it was mirrored at the last read or change), or the browser has no Rungs database
+ * yet, the app mounts at once and Dexie confirms just after; with a lock, or when unsure, Dexie decides first. If the
  * device database cannot be read, the journal cannot be read either, so the app starts without a lock.
  */
 export async function bootAppLock(): Promise<void> {
   const lock = useAppLockStore()
-  await lock.load().catch(() => undefined)
+  const known = startupFact('lockSet')
+  const loading = lock.load().catch(() => undefined)
+  if ((await known) !== false) await loading
   lock.watchPage()
   // Only the screen is awaited: the passcode check (with zod, through the backup code) follows while the page is idle.
   if (lock.locked) await loadLockScreen().catch(() => undefined)

@@ -36,12 +36,18 @@ export function useDraft(id: () => string, kind: Draft['kind'], init: () => Draf
 
   async function load(): Promise<void> {
     ready.value = false
+    const before = JSON.stringify(toRaw(data.value))
     const existing = await readDraft(id())
-    restored.value = Boolean(existing)
-    data.value = existing ? existing.data : await init()
+    const base = existing ? existing.data : await init()
+    // The form is on screen before the device database has answered, so the person may already have typed: what they
+    // typed stays (over a blank form or an older draft) and is saved, rather than being replaced by the read.
+    const typed = JSON.stringify(toRaw(data.value)) !== before
+    restored.value = Boolean(existing) && !typed
+    data.value = typed ? { ...base, ...(JSON.parse(JSON.stringify(toRaw(data.value))) as Draft['data']) } : base
     step.value = existing?.step
-    dirty = false
+    dirty = typed
     ready.value = true
+    if (typed) timer = setTimeout(() => void flush(), DRAFT_DEBOUNCE_MS)
   }
 
   watch([data, step], () => {

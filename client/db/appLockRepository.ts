@@ -2,6 +2,7 @@ import type { LockIdleMinutes } from '@shared/schemas/appLock.schema'
 import { db } from './db'
 import type { AppLockRecord } from './RungsDB'
 import { readSetting, writeSetting } from './settingsRepository'
+import { writeStartupHint } from './startupHints'
 
 // OWASP Password Storage Cheat Sheet's advice for PBKDF2-HMAC-SHA256, from memory (the same as backups).
 export const LOCK_ITERATIONS = 600_000
@@ -24,7 +25,12 @@ function sameBytes(a: Uint8Array, b: Uint8Array): boolean {
 // The base64 helpers live with the backup code (and its zod schemas), which only setting or checking a passcode needs.
 const backupCrypto = () => import('@/backup/backupCrypto')
 
-export const readAppLock = (): Promise<AppLockRecord | undefined> => readSetting('appLock')
+/** The lock record; each read also mirrors "a lock is set" into the start-up hint (db/startupHints.ts). */
+export async function readAppLock(): Promise<AppLockRecord | undefined> {
+  const record = await readSetting('appLock')
+  writeStartupHint('lockSet', Boolean(record))
+  return record
+}
 
 /**
  * Turns the lock on (or changes the passcode): stores a PBKDF2-SHA-256 hash with a fresh random salt, never the passcode.
@@ -35,6 +41,8 @@ export async function setAppLock(passcode: string, idleMinutes: LockIdleMinutes,
   const salt = globalThis.crypto.getRandomValues(new Uint8Array(SALT_BYTES))
   const hash = await derive(passcode, salt, iterations)
   const record: AppLockRecord = { hash: bytesToBase64(hash), salt: bytesToBase64(salt), iterations, digits: /^\d+$/.test(passcode), idleMinutes, setAt: now }
+  // Mirrored before the write: if the write fails, the hint errs towards asking Dexie at the next start, never the other way.
+  writeStartupHint('lockSet', true)
   await db.transaction('rw', db.settings, async () => {
     await writeSetting('appLock', record)
     await db.settings.delete('appLockFailures')
@@ -49,6 +57,8 @@ export async function setLockIdle(idleMinutes: LockIdleMinutes): Promise<void> {
 
 export async function removeAppLock(): Promise<void> {
   await db.settings.bulkDelete(['appLock', 'appLockFailures'])
+  // Cleared only once the lock is gone from Dexie.
+  writeStartupHint('lockSet', false)
 }
 
 /** Whether the passcode matches the stored hash. No lock set means nothing to match. */

@@ -31,9 +31,11 @@ describe('a device that has never signed in', () => {
     expect(urls.length).toBeGreaterThan(3)
     expect(urls.filter((u) => new URL(u).pathname.startsWith('/api'))).toEqual([])
     expect(urls.filter((u) => !u.startsWith('data:') && new URL(u).origin !== origin)).toEqual([])
-    // The region choice lives in IndexedDB, not in localStorage.
-    const stored = await page.evaluate(() => Object.keys(localStorage))
-    expect(stored.every((k) => k === 'rungs.appearance')).toBe(true)
+    // The region choice lives in IndexedDB, not in localStorage: only the appearance and the yes/no start-up hints do.
+    const stored = await page.evaluate(() => Object.entries(localStorage))
+    const allowed = ['rungs.appearance', 'rungs.lockSet', 'rungs.firstRunSeen']
+    expect(stored.filter(([k]) => !allowed.includes(k))).toEqual([])
+    expect(stored.filter(([k, v]) => k !== 'rungs.appearance' && v !== 'yes' && v !== 'no')).toEqual([])
     await close()
   })
 })

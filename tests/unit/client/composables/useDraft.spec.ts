@@ -67,3 +67,30 @@ describe('useDraft', () => {
     wrapper.unmount()
   })
 })
+
+describe('useDraft while the device database is still opening', () => {
+  beforeEach(async () => { await db.drafts.clear() })
+
+  it('keeps what the person typed before the draft was read, and saves it', async () => {
+    const { wrapper, api } = host()
+    const loading = api().load()
+    // Typed into the form before the read answers, as on a first visit with the database still opening.
+    api().data.value.body = 'Typed straight away'
+    await loading
+    expect(api().data.value.body).toBe('Typed straight away')
+    expect(api().data.value.kind).toBe('moment')
+    await api().flush()
+    expect((await db.drafts.get('moment:new'))?.data.body).toBe('Typed straight away')
+    wrapper.unmount()
+  })
+
+  it('still starts blank after a load with no typing in between (as after saving)', async () => {
+    const { wrapper, api } = host()
+    await api().load()
+    api().data.value.body = 'Saved as an entry'
+    await api().discard()
+    await api().load()
+    expect(api().data.value.body).toBe('')
+    wrapper.unmount()
+  })
+})
