@@ -1,6 +1,7 @@
 import { watch } from 'vue'
 import { startupFact } from '@/db/startupHints'
 import { useAppLockStore } from '@/stores/appLock'
+import { whenIdle } from '@/utils/whenIdle'
 
 /**
  * The lock screen (with its Help now and safety plan) as its own chunk. It is fetched before the app mounts when the
@@ -10,11 +11,6 @@ import { useAppLockStore } from '@/stores/appLock'
 export const loadLockScreen = () => import('@/components/AppLockScreen.vue')
 // With it, the code that checks a passcode (db/appLockRepository.ts loads it on first use), so unlocking never waits either.
 const warmLock = () => Promise.all([loadLockScreen(), import('@/backup/backupCrypto')]).catch(() => undefined)
-
-function whenIdle(run: () => void): void {
-  if (typeof requestIdleCallback === 'function') requestIdleCallback(run, { timeout: 5_000 })
-  else setTimeout(run, 1_000)
-}
 
 /**
  * Decides the app lock before the app mounts, so a person's page never paints before the lock covers it. When the
@@ -33,7 +29,7 @@ export async function bootAppLock(): Promise<void> {
   watch(
     () => lock.enabled,
     (on) => {
-      if (on) whenIdle(() => void warmLock())
+      if (on) whenIdle(() => void warmLock(), 5_000, 1_000)
     },
     { immediate: true },
   )
