@@ -1,4 +1,4 @@
-import { db } from './db'
+import { dbNow, openDb } from './openDb'
 
 /**
  * After the account is closed: forgets this device's copies of the links, the earlier scores and every pending send,
@@ -6,6 +6,7 @@ import { db } from './db'
  * signed in. The journal itself stays.
  */
 export async function clearAccountCopies(): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.transaction('rw', [db.links, db.outbox, db.earlierScores, db.entries, db.settings], async () => {
     await Promise.all([db.links.clear(), db.outbox.clear(), db.earlierScores.clear()])
     await db.entries.filter((e) => e.shares.length > 0).modify({ shares: [] })

@@ -1,5 +1,5 @@
 import type { LockIdleMinutes } from '@shared/schemas/appLock.schema'
-import { db } from './db'
+import { dbNow, openDb } from './openDb'
 import type { AppLockRecord } from './RungsDB'
 import { readSetting, writeSetting } from './settingsRepository'
 import { writeStartupHint } from './startupHints'
@@ -37,6 +37,7 @@ export async function readAppLock(): Promise<AppLockRecord | undefined> {
  * Tests may pass fewer iterations to stay fast; the app always uses the default.
  */
 export async function setAppLock(passcode: string, idleMinutes: LockIdleMinutes, iterations = LOCK_ITERATIONS, now = Date.now()): Promise<AppLockRecord> {
+  const db = dbNow() ?? (await openDb())
   const { bytesToBase64 } = await backupCrypto()
   const salt = globalThis.crypto.getRandomValues(new Uint8Array(SALT_BYTES))
   const hash = await derive(passcode, salt, iterations)
@@ -56,6 +57,7 @@ export async function setLockIdle(idleMinutes: LockIdleMinutes): Promise<void> {
 }
 
 export async function removeAppLock(): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.settings.bulkDelete(['appLock', 'appLockFailures'])
   // Cleared only once the lock is gone from Dexie.
   writeStartupHint('lockSet', false)
@@ -81,5 +83,6 @@ export async function recordLockFailure(now = Date.now()): Promise<{ count: numb
 }
 
 export async function clearLockFailures(): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.settings.delete('appLockFailures')
 }

@@ -1,5 +1,5 @@
 import type { Entry } from '@shared/schemas/entry.schema'
-import { db } from './db'
+import { dbNow, openDb } from './openDb'
 import { fromStored } from './entriesRepository'
 import { loadEntrySchemas } from './entrySchemas'
 import { entryWords } from './entryWords'
@@ -23,6 +23,7 @@ export interface MergeResult {
 
 /** Every entry on this device in the shared Entry shape (no search words), oldest first. */
 export async function allEntriesForBackup(): Promise<Entry[]> {
+  const db = dbNow() ?? (await openDb())
   return (await db.entries.orderBy('createdAt').toArray()).map(fromStored)
 }
 
@@ -43,6 +44,7 @@ function newestById(entries: Entry[]): Entry[] {
  * file again changes nothing.
  */
 export async function mergeBackup(entries: Entry[]): Promise<MergeResult> {
+  const db = dbNow() ?? (await openDb())
   const { entrySchema } = await loadEntrySchemas()
   const incoming = newestById(entries.map((e) => entrySchema.parse(e)))
   return db.transaction('rw', db.entries, async () => {
@@ -75,6 +77,7 @@ export interface BackupReminderState {
  * reminder was not put aside in the last 7. Reads entries and settings, so a liveQuery re-runs when either changes.
  */
 export async function backupReminderState(now = Date.now()): Promise<BackupReminderState> {
+  const db = dbNow() ?? (await openDb())
   const [count, lastBackupAt, snoozedAt] = await Promise.all([
     db.entries.count(),
     readSetting('lastBackupAt'),

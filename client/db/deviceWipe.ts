@@ -1,4 +1,4 @@
-import { db } from './db'
+import { dbNow, openDb } from './openDb'
 
 /** localStorage keys Rungs writes; everything else in this browser's storage for the site is Dexie's. */
 const RUNGS_KEY_PREFIX = 'rungs.'
@@ -9,6 +9,7 @@ const RUNGS_KEY_PREFIX = 'rungs.'
  * still opens offline afterwards. The caller reloads the page.
  */
 export async function wipeDevice(): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.delete()
   const storage = globalThis.localStorage
   if (!storage) return

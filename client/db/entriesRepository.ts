@@ -1,6 +1,6 @@
 import { searchWords } from '@shared/content/searchWords'
 import type { Entry, EntryInput, EntryKind, entrySchema as EntrySchema } from '@shared/schemas/entry.schema'
-import { db } from './db'
+import { dbNow, openDb } from './openDb'
 import { loadedEntrySchemas, loadEntrySchemas } from './entrySchemas'
 import { entryWords } from './entryWords'
 import { isJournalKind, journalIndex, journalKinds } from './journalIndex'
@@ -26,6 +26,7 @@ export function fromStored({ words: _words, ...entry }: StoredEntry): Entry {
 
 /** Creates an entry from what the person filled in; returns it with its new id and version 1. */
 export async function createEntry(input: EntryInput, now = Date.now()): Promise<Entry> {
+  const db = dbNow() ?? (await openDb())
   const { entryInputSchema, entrySchema } = await loadEntrySchemas()
   const data = entryInputSchema.parse(input)
   const entry: Entry = { ...data, id: crypto.randomUUID(), createdAt: data.createdAt ?? now, updatedAt: now, version: 1, shares: [] }
@@ -35,6 +36,7 @@ export async function createEntry(input: EntryInput, now = Date.now()): Promise<
 
 /** Saves an edit: the version rises by one so a later share can tell old from new. */
 export async function updateEntry(id: string, patch: Partial<EntryInput>, now = Date.now()): Promise<Entry> {
+  const db = dbNow() ?? (await openDb())
   // Loaded before the transaction: awaiting anything but IndexedDB inside one would end it. A caller that wraps this in
   // its own transaction (updateEntryAndRequeue) has loaded them already, so nothing is awaited there.
   const { entryInputSchema, entrySchema } = loadedEntrySchemas() ?? (await loadEntrySchemas())
@@ -48,16 +50,19 @@ export async function updateEntry(id: string, patch: Partial<EntryInput>, now = 
 }
 
 export async function getEntry(id: string): Promise<Entry | undefined> {
+  const db = dbNow() ?? (await openDb())
   const row = await db.entries.get(id)
   return row && fromStored(row)
 }
 
 export async function getEntries(ids: string[]): Promise<(Entry | undefined)[]> {
+  const db = dbNow() ?? (await openDb())
   return (await db.entries.bulkGet(ids)).map((row) => row && fromStored(row))
 }
 
 /** Moves an entry to the trash in one transaction; `restoreEntry` is its undo. */
 export async function trashEntry(id: string, now = Date.now()): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.transaction('rw', db.entries, db.trash, async () => {
     const entry = await db.entries.get(id)
     if (!entry) return
@@ -67,6 +72,7 @@ export async function trashEntry(id: string, now = Date.now()): Promise<void> {
 }
 
 export async function restoreEntry(id: string): Promise<boolean> {
+  const db = dbNow() ?? (await openDb())
   return db.transaction('rw', db.entries, db.trash, async () => {
     const row = await db.trash.get(id)
     if (!row) return false
@@ -78,6 +84,7 @@ export async function restoreEntry(id: string): Promise<boolean> {
 
 /** Forgets deleted entries once the undo window has long passed. */
 export async function purgeTrash(now = Date.now()): Promise<number> {
+  const db = dbNow() ?? (await openDb())
   return db.trash.where('deletedAt').below(now - TRASH_KEEP_MS).delete()
 }
 
@@ -101,6 +108,7 @@ export interface JournalRow {
  * on rows already in memory.
  */
 export async function listJournal(filter: JournalFilter = {}): Promise<JournalRow[]> {
+  const db = dbNow() ?? (await openDb())
   // Reading the count ties a caller's liveQuery to every change of the table, so the list re-runs after each write.
   await db.entries.count()
   const index = await journalIndex()
@@ -124,25 +132,30 @@ export async function listJournal(filter: JournalFilter = {}): Promise<JournalRo
 
 /** The latest journal entries (moments and tugs; questionnaires and the safety plan have their own screens). */
 export async function recentEntries(limit: number): Promise<Entry[]> {
+  const db = dbNow() ?? (await openDb())
   return (await db.entries.orderBy('createdAt').reverse().filter((e) => isJournalKind(e.kind)).limit(limit).toArray()).map(fromStored)
 }
 
 /** Entries whose time falls in [from, to], oldest first, for patterns and summaries. */
 export async function entriesBetween(from: number, to: number): Promise<Entry[]> {
+  const db = dbNow() ?? (await openDb())
   return (await db.entries.where('createdAt').between(from, to, true, true).toArray()).map(fromStored)
 }
 
 /** Every tag in use, from the tags index alone. */
 export async function tagsInUse(): Promise<string[]> {
+  const db = dbNow() ?? (await openDb())
   return (await db.entries.orderBy('tags').uniqueKeys()) as string[]
 }
 
 /** Every entry on this device, of any kind (what a backup holds). */
 export async function countEntries(): Promise<number> {
+  const db = dbNow() ?? (await openDb())
   return db.entries.count()
 }
 
 /** Moments and tugs only, from the kind index. */
 export async function countJournalEntries(): Promise<number> {
+  const db = dbNow() ?? (await openDb())
   return db.entries.where('kind').anyOf([...journalKinds]).count()
 }

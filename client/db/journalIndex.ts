@@ -1,6 +1,5 @@
-import Dexie from 'dexie'
 import type { EntryKind } from '@shared/schemas/entry.schema'
-import { db } from './db'
+import { dbNow, openDb } from './openDb'
 
 export interface IndexRow {
   id: string
@@ -31,6 +30,7 @@ export const journalKinds: readonly EntryKind[] = ['moment', 'tug']
 export const isJournalKind = (kind: EntryKind): boolean => journalKinds.includes(kind)
 
 async function build(): Promise<JournalIndex> {
+  const db = dbNow() ?? (await openDb())
   const rows: IndexRow[] = []
   const postings = new Map<string, string[]>()
   await db.entries.each((e) => {
@@ -59,14 +59,13 @@ async function build(): Promise<JournalIndex> {
 let cached: Promise<JournalIndex> | undefined
 let generation = 0
 
-// Any change to the entries table, in this tab or another, makes the index stale. Registered at import, before any
-// liveQuery subscribes, and liveQuery re-runs asynchronously, so a re-run always sees the dropped cache.
-Dexie.on('storagemutated', (parts) => {
-  if (Object.keys(parts).some((p) => p.startsWith(`idb://${db.name}/entries/`))) {
+/** Called by db/db.ts for every change Dexie reports, in this tab or another: a change to the entries table drops the index. */
+export function dropJournalIndexOn(changed: string[], dbName: string): void {
+  if (changed.some((p) => p.startsWith(`idb://${dbName}/entries/`))) {
     generation++
     cached = undefined
   }
-})
+}
 
 /** The in-memory index, built once (one pass over the table) and again after each change. */
 export function journalIndex(): Promise<JournalIndex> {

@@ -1,5 +1,5 @@
 import type { Entry, EntryInput } from '@shared/schemas/entry.schema'
-import { db } from './db'
+import { dbNow, openDb } from './openDb'
 import { fromStored, updateEntry } from './entriesRepository'
 import { loadEntrySchemas } from './entrySchemas'
 import type { OutboxRow } from './RungsDB'
@@ -27,6 +27,7 @@ function freshRow(entryId: string, linkId: string, op: OutboxRow['op'], version:
  * version it already holds as a withdrawal, so sharing again after a withdrawal raises the entry's version by one.
  */
 export async function queueShare(entryId: string, linkId: string, now = Date.now()): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.transaction('rw', db.entries, db.outbox, async () => {
     const row = await db.entries.get(entryId)
     if (!row) throw new Error('That entry is no longer on this device.')
@@ -40,6 +41,7 @@ export async function queueShare(entryId: string, linkId: string, now = Date.now
 
 /** Marks the share as being withdrawn and queues a 'delete' at the entry's version, replacing any pending 'put'. */
 export async function queueWithdraw(entryId: string, linkId: string, now = Date.now()): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.transaction('rw', db.entries, db.outbox, async () => {
     const row = await db.entries.get(entryId)
     if (!row) throw new Error('That entry is no longer on this device.')
@@ -53,6 +55,7 @@ export async function queueWithdraw(entryId: string, linkId: string, now = Date.
  * (or waiting to be shared) with. The one row per entry and link is replaced, so autosaved edits never flood the outbox.
  */
 export async function updateEntryAndRequeue(id: string, patch: Partial<EntryInput>, now = Date.now()): Promise<Entry> {
+  const db = dbNow() ?? (await openDb())
   // Before the transaction, so updateEntry inside it awaits only IndexedDB.
   await loadEntrySchemas()
   return db.transaction('rw', db.entries, db.outbox, async () => {
@@ -68,15 +71,18 @@ export async function updateEntryAndRequeue(id: string, patch: Partial<EntryInpu
 
 /** Rows whose next attempt is due, oldest first; rows that gave up wait for the person's retry. */
 export async function dueOutboxRows(now = Date.now()): Promise<OutboxRow[]> {
+  const db = dbNow() ?? (await openDb())
   return (await db.outbox.where('nextAttemptAt').belowOrEqual(now).toArray()).filter((r) => !r.failed)
 }
 
 export async function getOutboxRow(id: string): Promise<OutboxRow | undefined> {
+  const db = dbNow() ?? (await openDb())
   return db.outbox.get(id)
 }
 
 /** The entry as the therapist will receive it: the device's list of its own shares stays on the device. */
 export async function entryForSending(entryId: string): Promise<Entry | undefined> {
+  const db = dbNow() ?? (await openDb())
   const row = await db.entries.get(entryId)
   return row && { ...fromStored(row), shares: [] }
 }
@@ -87,6 +93,7 @@ export async function entryForSending(entryId: string): Promise<Entry | undefine
  * back).
  */
 export async function putDisposition(row: OutboxRow): Promise<'send' | 'drop' | 'wait'> {
+  const db = dbNow() ?? (await openDb())
   const entry = await db.entries.get(row.entryId)
   if (!entry) return (await isInTrash(row.entryId)) ? 'wait' : 'drop'
   const share = entry.shares.find((s) => s.linkId === row.linkId)
@@ -95,6 +102,7 @@ export async function putDisposition(row: OutboxRow): Promise<'send' | 'drop' | 
 
 /** Whether the entry is still in the trash (it may come back with Undo), so a pending row is kept meanwhile. */
 export async function isInTrash(entryId: string): Promise<boolean> {
+  const db = dbNow() ?? (await openDb())
   return (await db.trash.get(entryId)) !== undefined
 }
 
@@ -103,6 +111,7 @@ export async function isInTrash(entryId: string): Promise<boolean> {
  * send covers: a newer edit may have replaced it meanwhile, and that one must still go.
  */
 export async function completeSend(sent: OutboxRow, sentVersion: number): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.transaction('rw', db.entries, db.outbox, async () => {
     const current = await db.outbox.get(sent.id)
     const covered = current !== undefined && current.op === sent.op && current.version <= sentVersion
@@ -118,6 +127,7 @@ export async function completeSend(sent: OutboxRow, sentVersion: number): Promis
 
 /** The link has ended on the server: nothing more can go over it, and what was there has been withdrawn. */
 export async function dropForEndedLink(sent: OutboxRow): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.transaction('rw', db.entries, db.outbox, async () => {
     await db.outbox.delete(sent.id)
     const entry = await db.entries.get(sent.entryId)
@@ -127,16 +137,19 @@ export async function dropForEndedLink(sent: OutboxRow): Promise<void> {
 
 /** Drops a row that has nothing left to send (the entry is gone from the device, or it is private again). */
 export async function dropOutboxRow(id: string): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.outbox.delete(id)
 }
 
 /** Schedules the next try after a failure that may pass (offline, server trouble). */
 export async function deferSend(id: string, attempts: number, nextAttemptAt: number, lastError: string): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.outbox.update(id, { attempts, nextAttemptAt, lastError })
 }
 
 /** Gives up on automatic tries: the entry shows "failed" and the row stays until the person retries. */
 export async function markSendFailed(sent: OutboxRow, attempts: number, lastError: string): Promise<void> {
+  const db = dbNow() ?? (await openDb())
   await db.transaction('rw', db.entries, db.outbox, async () => {
     const current = await db.outbox.get(sent.id)
     if (!current) return
@@ -148,6 +161,7 @@ export async function markSendFailed(sent: OutboxRow, attempts: number, lastErro
 
 /** The person's retry: the row is due at once with a fresh count, and the entry shows it is waiting again. */
 export async function rearmOutbox(entryId?: string, linkId?: string, now = Date.now()): Promise<number> {
+  const db = dbNow() ?? (await openDb())
   return db.transaction('rw', db.entries, db.outbox, async () => {
     const rows = (await db.outbox.toArray()).filter((r) => r.failed && (!entryId || r.entryId === entryId) && (!linkId || r.linkId === linkId))
     for (const r of rows) {
@@ -167,6 +181,7 @@ export interface OutboxCounts {
 }
 
 export async function outboxCounts(): Promise<OutboxCounts> {
+  const db = dbNow() ?? (await openDb())
   const rows = await db.outbox.toArray()
   const waiting = rows.filter((r) => !r.failed)
   const next = waiting.reduce<number | undefined>((min, r) => (min === undefined || r.nextAttemptAt < min ? r.nextAttemptAt : min), undefined)
@@ -174,5 +189,6 @@ export async function outboxCounts(): Promise<OutboxCounts> {
 }
 
 export async function outboxRowsFor(entryId: string): Promise<OutboxRow[]> {
+  const db = dbNow() ?? (await openDb())
   return db.outbox.where('id').startsWith(`${entryId}:`).toArray()
 }

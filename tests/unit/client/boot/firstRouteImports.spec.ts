@@ -2,7 +2,7 @@ import fs from 'node:fs'
 import path from 'node:path'
 import { describe, expect, it } from 'vitest'
 
-// The first route (/ → PersonLayout → TodayPage) paints without zod or the sending code: those load with import() when
+// The first route (/ → PersonLayout → TodayPage) paints without zod, Dexie or the sending code: those load with import() when
 // something is written, fails or is sent (boot/sync.ts, stores/session.ts, db/entrySchemas.ts, api/http.ts). This walks
 // the static, non-type imports from main.ts and the first route's components, so a new static import that would put
 // zod back on the first screen fails here rather than only in `npm run bench -- pages`.
@@ -58,7 +58,12 @@ describe('what the first route imports', () => {
   it('walks the real first route (the shell, Today and the journal on the device)', () => {
     const files = [...graph.keys()].map((f) => path.relative(root, f))
     expect(files).toEqual(expect.arrayContaining(['client/App.vue', 'client/components/AppShell.vue', 'client/components/MomentForm.vue', 'client/db/entriesRepository.ts', 'client/stores/session.ts']))
-    expect(graph.has('dexie')).toBe(true)
+    expect(files).toContain('client/db/openDb.ts')
+  })
+
+  it('reaches Dexie only through import() in db/openDb.ts, so a first visit paints before it loads', () => {
+    expect(reached((id) => id === 'dexie' || id === path.join(root, 'client/db/db.ts') || id === path.join(root, 'client/db/RungsDB.ts'))).toEqual([])
+    expect(fs.readFileSync(path.join(root, 'client/db/openDb.ts'), 'utf8')).toContain("import('./db')")
   })
 
   it('reaches neither zod nor a shared schema', () => {
