@@ -3,6 +3,7 @@ import { quasar, transformAssetUrls } from '@quasar/vite-plugin'
 import vue from '@vitejs/plugin-vue'
 import { VitePWA } from 'vite-plugin-pwa'
 import { defineConfig } from 'vitest/config'
+import { unusedQuasarCss } from './client/build/unusedQuasarCss'
 
 export default defineConfig({
   root: 'client',
@@ -19,6 +20,8 @@ export default defineConfig({
     // After vue(), as the Quasar plugin requires. Brand colours live in client/css/brand.css as CSS variables,
     // so the prebuilt Quasar CSS is used and no sass compiler is needed.
     quasar({ sassVariables: false }),
+    // Quasar's stylesheet covers every component it has; the build keeps the rules the app's code can use.
+    unusedQuasarCss(fileURLToPath(new URL('./client', import.meta.url))),
     VitePWA({
       registerType: 'prompt',
       injectRegister: false,
@@ -62,7 +65,7 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', root: fileURLToPath(new URL('.', import.meta.url)), include: ['tests/unit/shared/**/*.spec.ts', 'tests/unit/server/**/*.spec.ts'], environment: 'node' },
+        test: { name: 'unit', root: fileURLToPath(new URL('.', import.meta.url)), include: ['tests/unit/shared/**/*.spec.ts', 'tests/unit/server/**/*.spec.ts', 'tests/unit/build/**/*.spec.ts'], environment: 'node' },
       },
       {
         extends: true,

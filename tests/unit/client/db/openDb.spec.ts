@@ -34,7 +34,7 @@ describe('loading the device database (db/openDb.ts)', () => {
     expect(dbNow()).toBe(db)
     expect(db.name).toBe('rungs')
     // Opened and usable: the first write creates the database.
-    await db.settings.put({ key: 'region', value: 'GB' })
+    await db.settings.put({ key: 'firstRunSeenAt', value: 1 })
     expect((await indexedDB.databases()).map((d) => d.name)).toContain('rungs')
   })
 
