@@ -28,12 +28,20 @@ export function dbNow(): RungsDB | undefined {
 /**
  * Dexie is about a fifth of the app's first-screen code and is loaded with import(). On a browser that holds no Rungs
  * database yet (a first visit, or after a wipe) there is nothing to read, so the first screen paints with its empty
- * defaults and Dexie follows when the page is idle (or at the latest after 2 s); otherwise it is fetched at once.
+ * defaults and Dexie follows when the page is idle (at the latest after 2 s), or at once when the person first taps or
+ * types, so what they write is never waiting on a timer; otherwise it is fetched at once.
  */
+function firstIdleOrInput(): Promise<void> {
+  return new Promise((resolve) => {
+    whenIdle(resolve, 2_000, 300)
+    for (const type of ['pointerdown', 'keydown']) globalThis.addEventListener?.(type, () => resolve(), { once: true, capture: true, passive: true })
+  })
+}
+
 export function loadDb(): Promise<LoadedDb> {
   if (loaded) return Promise.resolve(loaded)
   loading ??= (async () => {
-    if (await probeNoDatabase()) await new Promise<void>((resolve) => whenIdle(resolve, 2_000, 300))
+    if (await probeNoDatabase()) await firstIdleOrInput()
     await import('./db')
     return loaded!
   })()

@@ -38,6 +38,20 @@ describe('loading the device database (db/openDb.ts)', () => {
     expect((await indexedDB.databases()).map((d) => d.name)).toContain('rungs')
   })
 
+  it('on a first visit, loads Dexie as soon as the person types, without waiting for idle', async () => {
+    await new Promise((resolve) => (indexedDB.deleteDatabase('rungs').onsuccess = resolve))
+    const held = holdIdleCallbacks()
+    const { loadDb } = await freshOpenDb()
+    let done = false
+    const loading = loadDb().then((d) => (done = true) && d)
+    await settle()
+    expect(done).toBe(false)
+    window.dispatchEvent(new KeyboardEvent('keydown', { key: 'a' }))
+    const { db } = await loading
+    expect(db.name).toBe('rungs')
+    expect(held).toHaveLength(1)
+  })
+
   it('when the database exists, loads Dexie at once, and every caller gets the same instance', async () => {
     const opened = indexedDB.open('rungs')
     await new Promise((resolve) => (opened.onsuccess = resolve))
