@@ -36,8 +36,12 @@ export function seedEntries(count: number, days: number, now = Date.now()): (Ent
   return out
 }
 
-/** Writes entries straight into the app's IndexedDB (the page must have opened the app once). */
+/**
+ * Writes entries straight into the app's IndexedDB. The page must have opened the app once; on a first visit the app
+ * creates its database only when the page is idle (client/db/openDb.ts), so this waits for it first.
+ */
 export async function seedDevice(page: Page, entries: (Entry & { words: string[] })[]): Promise<void> {
+  await page.waitForFunction(async () => (await indexedDB.databases()).some((d) => d.name === 'rungs' && (d.version ?? 0) > 1), undefined, { polling: 100, timeout: 10_000 })
   await page.evaluate(async (rows) => {
     const db = await new Promise<IDBDatabase>((resolve, reject) => {
       const r = indexedDB.open('rungs')
