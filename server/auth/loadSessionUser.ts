@@ -35,8 +35,8 @@ interface IncludeSteps {
 
 /**
  * Build options for a user with their therapist profile, with the include already checked and resolved, as findAll
- * (through bulkBuild) does once per query. Checking it on every build cloned the include tree and cost about as much as
- * the rest of the request's user handling. The options are only read by build, so one object serves every request.
+ * (through bulkBuild) does once per query. Checking it on every build cloned the include tree, about half the cost of
+ * building the user. The options are only read by build, so one object serves every request.
  */
 function validatedInclude(models: Models) {
   const options = { isNewRecord: false, raw: true, include: [{ model: models.TherapistProfile, as: 'therapistProfile' }] }
