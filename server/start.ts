@@ -2,6 +2,7 @@ import type { AddressInfo } from 'node:net'
 import http, { STATUS_CODES, type Server } from 'node:http'
 import type { Duplex } from 'node:stream'
 import { createApp } from './app'
+import { appMessages } from './appMessages'
 import { databaseTarget, type Config } from './config/env'
 import { prepareDatabase } from './db/prepareDatabase'
 import { openDatabase } from './db/sequelize'
@@ -54,7 +55,9 @@ export async function startServer(config: Readonly<Config>, log: Logger = create
   const mailer = createMailer({ smtpUrl: config.smtpUrl, fakePort: fakeSmtp?.port, from: config.mailFrom })
 
   // Listen first, so that with PORT=0 the links in e-mails can name the port actually chosen.
-  const server = http.createServer()
+  // Requests and responses are born with the app's prototypes once it exists (appMessages.ts).
+  const messages = appMessages()
+  const server = http.createServer(messages.options)
   answerClientErrors(server)
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject)
@@ -66,6 +69,7 @@ export async function startServer(config: Readonly<Config>, log: Logger = create
 
   const deps: AppDeps = { config: finalConfig, sequelize, models, mailer, fakeSmtp, log }
   const app = createApp(deps)
+  messages.adopt(app)
   let closing: Promise<void> | undefined
   // Once closing, a request that still arrives on an open keep-alive socket is answered and that socket then closed.
   server.on('request', (_req, res) => {

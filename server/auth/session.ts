@@ -47,8 +47,9 @@ export function createSessionMiddleware(config: Readonly<Config>, sequelize: Seq
     }),
   })
   // express-session touches the store on every request it does not save (an UPDATE per request). The timeouts middleware
-  // instead changes the session at most once a minute, and that save renews the row's expiry.
-  store.touch = (_sid, _session, done) => done?.(null)
+  // instead changes the session at most once a minute, and that save renews the row's expiry. With no touch at all
+  // (rather than one that does nothing) express-session also skips its per-request touch check and the wrapped end.
+  ;(store as { touch?: unknown }).touch = undefined
   // The read on every request, as the store's own get (the row's data; expiry is left to the cookie and the tidy-up), as
   // one plain statement that also brings the signed-in user for passport (auth/loadSessionUser.ts): the store's findOne
   // and a separate user query cost a PRAGMA lookup and per-column work each on SQLite besides the statements.

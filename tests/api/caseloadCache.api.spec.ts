@@ -322,4 +322,33 @@ describe('the per-request reads in front of the caseload', () => {
     expect(users.take(sid, th.user.id)).toBeUndefined()
     expect(await users.readSession(String(t.deps.models.Session.getTableName()), 'no-such-session')).toBeNull()
   })
+
+  it('builds each user as an instance of its own, though the include is checked once for all of them', async () => {
+    const approved = await makeTherapist(t, 'Quill Amberley')
+    const pending = await makeTherapist(t, 'Rowan Tessaly', { approved: false })
+    await signedInAs(t, approved)
+    await signedInAs(t, pending)
+    const users = sessionUsers(t.deps.models)
+    const table = String(t.deps.models.Session.getTableName())
+    const sidOf = async (id: string) => (await t.deps.models.Session.findOne({ where: { userId: id } }))!.sid
+    const [sidA, sidB] = [await sidOf(approved.user.id), await sidOf(pending.user.id)]
+    await users.readSession(table, sidA)
+    const a = users.take(sidA, approved.user.id)!
+    await users.readSession(table, sidB)
+    const b = users.take(sidB, pending.user.id)!
+    expect(a.therapistProfile!.approvedAt).toBeInstanceOf(Date)
+    expect(b.therapistProfile!.approvedAt).toBeNull()
+    expect(a.therapistProfile).not.toBe(b.therapistProfile)
+    // A change to one instance is its own: nothing it holds is shared with the next user built.
+    a.set('displayName', 'Changed Here')
+    a.therapistProfile!.set('practice', 'Changed practice')
+    expect(a.changed()).toEqual(['displayName'])
+    expect(b.changed()).toBe(false)
+    expect(b.displayName).toBe('Rowan Tessaly')
+    expect(b.therapistProfile!.changed()).toBe(false)
+    await users.readSession(table, sidA)
+    const again = users.take(sidA, approved.user.id)!
+    expect(again.displayName).toBe('Quill Amberley')
+    expect(again.therapistProfile!.practice).not.toBe('Changed practice')
+  })
 })
