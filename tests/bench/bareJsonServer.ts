@@ -1,5 +1,7 @@
 // The yardstick for the caseload figure: a bare Express app with one small JSON route, in its own process like Rungs.
+import http from 'node:http'
 import express from 'express'
+import { appMessages } from '../../server/appMessages'
 
 const app = express()
 app.get('/bare', (_req, res) => {
@@ -11,4 +13,8 @@ const big = Buffer.from(JSON.stringify({ pad: 'x'.repeat(Math.max(0, Number(proc
 app.get('/bare-body', (_req, res) => {
   res.type('application/json').send(big)
 })
-app.listen(Number(process.env.PORT), '127.0.0.1', () => console.log('bare JSON server listening'))
+// APP_MESSAGES=1: for comparison only, the same app on a server built like Rungs' own (server/appMessages.ts).
+const messages = appMessages()
+const server = process.env.APP_MESSAGES === '1' ? http.createServer(messages.options, app) : http.createServer(app)
+if (process.env.APP_MESSAGES === '1') messages.adopt(app)
+server.listen(Number(process.env.PORT), '127.0.0.1', () => console.log('bare JSON server listening'))

@@ -18,8 +18,9 @@ const SEQUENTIAL = 10
 const RATIO_BUDGET = 0.25
 const P99_BUDGET_MS = 50
 
-async function startBare(port: number, bodyBytes: number): Promise<{ stop(): Promise<void> }> {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join('tests', 'bench', 'bareJsonServer.ts')], { cwd: repoRoot, stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, PORT: String(port), BODY_BYTES: String(bodyBytes) } })
+async function startBare(port: number, bodyBytes: number, appMessages = false): Promise<{ stop(): Promise<void> }> {
+  const env = { ...process.env, PORT: String(port), BODY_BYTES: String(bodyBytes), APP_MESSAGES: appMessages ? '1' : '0' }
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join('tests', 'bench', 'bareJsonServer.ts')], { cwd: repoRoot, stdio: ['ignore', 'pipe', 'inherit'], env })
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()))
   await new Promise<void>((resolve, reject) => {
     child.stdout!.setEncoding('utf8').on('data', (d: string) => d.includes('listening') && resolve())
@@ -61,6 +62,13 @@ export async function benchCaseload(tmp: string, track: (p: RungsProcess | undef
   const bareBodyRun = await cannon(`http://127.0.0.1:${barePort}/bare-body`)
   const caseRun = await cannon(`${server.origin}/api/therapist/caseload`, { cookie: therapist.sessionCookie, accept: 'application/json' })
   await bare.stop()
+  // Rungs' server makes requests with the app's prototypes (server/appMessages.ts), which plain Express does not: the
+  // same bare route on such a server shows how much of the ratio that alone is worth.
+  const likePort = await freePort()
+  const bareLike = await startBare(likePort, bodyBytes, true)
+  onClose(bareLike.stop)
+  const bareLikeRun = await cannon(`http://127.0.0.1:${likePort}/bare`)
+  await bareLike.stop()
   await server.stop()
   track(undefined)
   const { auditPerRequest } = await afterRun(dataDir, 1 + SEQUENTIAL + caseRun.requests.sent)
@@ -74,6 +82,7 @@ export async function benchCaseload(tmp: string, track: (p: RungsProcess | undef
     row(`Caseload, one request at a time (median / max of ${SEQUENTIAL})`, `${ms(percentile(alone, 50))} ms`, `   max ${ms(Math.max(...alone))} ms`),
     row('Caseload (requests/s; p50 / p99)', `${group(caseRun.requests.average)}/s`, `   ${caseRun.latency.p50} / ${caseRun.latency.p99} ms   ${group(caseRun.requests.total)} requests, ${non2xx(caseRun)} not 2xx`),
     row('Caseload throughput as a ratio to the bare route', ratio.toFixed(3), `   budget ≥ ${RATIO_BUDGET}${ratio < RATIO_BUDGET ? '   MISSES BUDGET' : ''}`),
+    row('  for comparison, not the budget: the bare route on a server built like Rungs\' (appMessages.ts)', `${group(bareLikeRun.requests.average)}/s`, `   ${bareLikeRun.latency.p50} / ${bareLikeRun.latency.p99} ms   caseload ratio to it ${(caseRun.requests.average / bareLikeRun.requests.average).toFixed(3)}`),
     row('Caseload p99 latency', `${ms(caseRun.latency.p99)} ms`, `   budget ≤ ${P99_BUDGET_MS} ms${caseRun.latency.p99 > P99_BUDGET_MS ? '   MISSES BUDGET' : ''}`),
     row("  shares.read access-log rows written per caseload request", auditPerRequest === undefined ? 'n/a' : auditPerRequest.toFixed(1)),
     ...(probe.status !== 200 ? [`  the caseload answered ${probe.status}: ${JSON.stringify(probe.body).slice(0, 200)}`] : []),
