@@ -58,6 +58,14 @@ describe('the therapist reads what was shared, in Chromium', () => {
     await row.waitFor()
     expect((await row.locator('td').nth(2).textContent())?.trim()).toBe('2')
     expect(await row.locator('[data-test=risk-flag]').textContent()).toContain('Flagged: risk words or PHQ-9 question 9')
+    // At 1280 px the flag's words wrap inside their cell and the table needs no sideways scroll to show them.
+    const fits = await row.locator('[data-test=risk-flag]').evaluate((el) => {
+      const cell = el.closest('td')!.getBoundingClientRect()
+      const flag = el.getBoundingClientRect()
+      const table = el.closest('.q-table__middle')!
+      return flag.right <= cell.right + 0.5 && table.scrollWidth <= table.clientWidth
+    })
+    expect(fits).toBe(true)
     expect(await page.locator('[data-test=flag-note]').textContent()).toContain('follow your local risk procedures')
     expect(await seriousViolations(page)).toEqual([])
     await page.screenshot({ path: '.screens/caseload-1280.png', fullPage: true })
