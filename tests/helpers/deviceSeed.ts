@@ -58,11 +58,19 @@ export async function seedDevice(page: Page, entries: (Entry & { words: string[]
     { polling: 100, timeout: 10_000 },
   )
   await page.evaluate(async (rows) => {
-    const db = await new Promise<IDBDatabase>((resolve, reject) => {
-      const r = indexedDB.open('rungs')
-      r.onsuccess = () => resolve(r.result)
-      r.onerror = () => reject(r.error)
-    })
+    const open = () =>
+      new Promise<IDBDatabase>((resolve, reject) => {
+        const r = indexedDB.open('rungs')
+        r.onsuccess = () => resolve(r.result)
+        r.onerror = () => reject(r.error)
+      })
+    // Seen in CI: a moment after the check above, an open can still find no entries store; wait for it again here.
+    let db = await open()
+    for (let i = 0; i < 100 && !db.objectStoreNames.contains('entries'); i++) {
+      db.close()
+      await new Promise((resolve) => setTimeout(resolve, 100))
+      db = await open()
+    }
     await new Promise<void>((resolve, reject) => {
       const tx = db.transaction('entries', 'readwrite')
       for (const row of rows) tx.objectStore('entries').put(row)
