@@ -72,7 +72,7 @@ function dynamicPrefixesIn(texts: string[]): string[] {
 }
 
 export function quasarCssUse(clientDir: string): QuasarCssUse {
-  const own = filesUnder(clientDir, /\.(vue|ts|html)$/, (p) => p.includes(`${path.sep}build`) && p.startsWith(path.join(clientDir, 'build')))
+  const own = filesUnder(clientDir, /\.(vue|ts|html)$/, (p) => p === path.join(clientDir, 'build'))
   const ownTexts = own.map((f) => fs.readFileSync(f, 'utf8'))
   const importMap = JSON.parse(fs.readFileSync(path.join(quasarRoot, 'dist/transforms/import-map.json'), 'utf8')) as Record<string, string>
   const seeds = quasarNamesIn(ownTexts, importMap).map((n) => path.join(quasarRoot, importMap[n]!))

@@ -14,7 +14,7 @@ app.get('/bare-body', (_req, res) => {
   res.type('application/json').send(big)
 })
 // APP_MESSAGES=1: for comparison only, the same app on a server built like Rungs' own (server/appMessages.ts).
-const messages = appMessages()
-const server = process.env.APP_MESSAGES === '1' ? http.createServer(messages.options, app) : http.createServer(app)
-if (process.env.APP_MESSAGES === '1') messages.adopt(app)
+const messages = process.env.APP_MESSAGES === '1' ? appMessages() : undefined
+const server = messages ? http.createServer(messages.options, app) : http.createServer(app)
+messages?.adopt(app)
 server.listen(Number(process.env.PORT), '127.0.0.1', () => console.log('bare JSON server listening'))

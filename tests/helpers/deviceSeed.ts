@@ -39,24 +39,11 @@ export function seedEntries(count: number, days: number, now = Date.now()): (Ent
 /**
  * Writes entries straight into the app's IndexedDB. The page must have opened the app once; on a first visit the app
  * creates its database only when the page is idle (client/db/openDb.ts), so this waits until the database is listed
- * and its upgrade has made the entries store (an open while Dexie is still creating it can see no stores).
+ * (opening it before would create an empty one) and then until its upgrade has made the entries store: CI saw an open
+ * just after the listing find no stores.
  */
 export async function seedDevice(page: Page, entries: (Entry & { words: string[] })[]): Promise<void> {
-  await page.waitForFunction(
-    async () => {
-      if (!(await indexedDB.databases()).some((d) => d.name === 'rungs' && (d.version ?? 0) > 1)) return false
-      const db = await new Promise<IDBDatabase>((resolve, reject) => {
-        const r = indexedDB.open('rungs')
-        r.onsuccess = () => resolve(r.result)
-        r.onerror = () => reject(r.error)
-      })
-      const ready = db.objectStoreNames.contains('entries')
-      db.close()
-      return ready
-    },
-    undefined,
-    { polling: 100, timeout: 10_000 },
-  )
+  await page.waitForFunction(async () => (await indexedDB.databases()).some((d) => d.name === 'rungs' && (d.version ?? 0) > 1), undefined, { polling: 100, timeout: 10_000 })
   await page.evaluate(async (rows) => {
     const open = () =>
       new Promise<IDBDatabase>((resolve, reject) => {
@@ -64,7 +51,6 @@ export async function seedDevice(page: Page, entries: (Entry & { words: string[]
         r.onsuccess = () => resolve(r.result)
         r.onerror = () => reject(r.error)
       })
-    // Seen in CI: a moment after the check above, an open can still find no entries store; wait for it again here.
     let db = await open()
     for (let i = 0; i < 100 && !db.objectStoreNames.contains('entries'); i++) {
       db.close()
