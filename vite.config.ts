@@ -3,6 +3,7 @@ import { quasar, transformAssetUrls } from '@quasar/vite-plugin'
 import vue from '@vitejs/plugin-vue'
 import { VitePWA } from 'vite-plugin-pwa'
 import { defineConfig } from 'vitest/config'
+import { firstScreenHtml } from './client/build/firstScreenHtml'
 import { unusedQuasarCss } from './client/build/unusedQuasarCss'
 
 export default defineConfig({
@@ -22,6 +23,8 @@ export default defineConfig({
     quasar({ sassVariables: false }),
     // Quasar's stylesheet covers every component it has; the build keeps the rules the app's code can use.
     unusedQuasarCss(fileURLToPath(new URL('./client', import.meta.url))),
+    // index.html carries Today rendered from the app's components, so the first screen paints before the app's code runs.
+    firstScreenHtml(fileURLToPath(new URL('.', import.meta.url))),
     VitePWA({
       registerType: 'prompt',
       injectRegister: false,

@@ -1,5 +1,4 @@
-// First, before any module that builds a zod schema (see boot/zodConfig.ts).
-import './boot/zodConfig'
+// The stylesheets stay in the entry, so index.html links them and its prerendered Today paints styled.
 import '@fontsource/lora/latin-400.css'
 import '@fontsource/lora/latin-600.css'
 import '@quasar/extras/material-icons/material-icons.css'
@@ -7,30 +6,11 @@ import 'quasar/src/css/index.sass'
 import './css/brand.css'
 import './css/app.css'
 
-import { createPinia } from 'pinia'
-import { Dark, Dialog, Notify, Quasar } from 'quasar'
-import { createApp } from 'vue'
-import App from './App.vue'
-import { bootAppearance } from './boot/appearance'
-import { bootAppLock } from './boot/appLock'
-import { bootDeviceSettings } from './boot/deviceSettings'
-import { bootHttp } from './boot/http'
-import { bootJournal } from './boot/journal'
-import { bootSync } from './boot/sync'
-import { probeNoDatabase } from './db/startupHints'
-import { router } from './router'
-
-// Asked before any boot file opens Dexie (which creates the database): a first visit then paints without waiting on it.
-void probeNoDatabase()
-const app = createApp(App)
-app.use(createPinia())
-app.use(Quasar, { plugins: { Notify, Dialog, Dark }, config: { notify: { position: 'top', timeout: 2500, group: false } } })
-bootAppearance()
-bootHttp()
-bootDeviceSettings()
-bootJournal()
-bootSync()
-app.use(router)
-// The lock is decided before the first paint, and the first route's code is loaded (the router starts navigating at
-// app.use), so the app replaces index.html's static Help now block with a whole screen, never with a blank one.
-void Promise.allSettled([bootAppLock(), router.isReady()]).finally(() => app.mount('#app'))
+// index.html already holds Today, rendered at build time (client/build/firstScreenHtml.ts). Running the app's code takes
+// a slow phone a second or more, and a browser that has the code at hand (from the service worker) runs it before it
+// paints anything, so the app starts only once that screen is on the glass. A hidden tab paints nothing: it starts at once.
+const start = () => {
+  import('./startApp').catch(() => document.documentElement.classList.add('rungs-app-failed'))
+}
+if (document.visibilityState === 'hidden') start()
+else requestAnimationFrame(() => setTimeout(start))

@@ -38,6 +38,8 @@ export function useLiveQuery<T>(querier: () => T | Promise<T>, initial: T, sourc
       },
     )
   }
+  // Rendered ahead at build time (client/prerender/firstScreen.ts) there is no device to read: the result stays `initial`.
+  if (import.meta.env.SSR) return { result, error, loaded }
   if (sources.length) watch(sources, start, { immediate: true })
   else start()
   onScopeDispose(() => {

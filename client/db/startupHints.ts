@@ -39,6 +39,11 @@ export function probeNoDatabase(name = 'rungs'): Promise<boolean> {
   return noDatabase
 }
 
+/** For the build-time render of the first screen (client/prerender/firstScreen.ts): the state of a first visit. */
+export function assumeNoDatabase(): void {
+  noDatabase = Promise.resolve(true)
+}
+
 /**
  * A fact for the first paint: the hint when there is one; false on a browser with no Rungs database, where neither a
  * lock nor an acknowledged notice can exist; otherwise undefined, and Dexie decides.

@@ -4,10 +4,10 @@ import { describe, expect, it } from 'vitest'
 
 // The first route (/ → PersonLayout → TodayPage) paints without zod, Dexie or the sending code: those load with import() when
 // something is written, fails or is sent (boot/sync.ts, stores/session.ts, db/entrySchemas.ts, api/http.ts). This walks
-// the static, non-type imports from main.ts and the first route's components, so a new static import that would put
+// the static, non-type imports from main.ts, the app it starts (startApp.ts) and the first route's components, so a new static import that would put
 // zod back on the first screen fails here rather than only in `npm run bench -- pages`.
 const root = path.resolve(__dirname, '../../../..')
-const FIRST_ROUTE = ['client/main.ts', 'client/layouts/PersonLayout.vue', 'client/pages/TodayPage.vue']
+const FIRST_ROUTE = ['client/main.ts', 'client/startApp.ts', 'client/layouts/PersonLayout.vue', 'client/pages/TodayPage.vue']
 
 function resolveImport(from: string, spec: string): string | undefined {
   let base: string

@@ -1,0 +1,98 @@
+import path from 'node:path'
+import { pathToFileURL } from 'node:url'
+import { quasar, transformAssetUrls } from '@quasar/vite-plugin'
+import vue from '@vitejs/plugin-vue'
+import type { OutputBundle, OutputChunk } from 'rolldown'
+import { build, type Plugin } from 'vite'
+
+/** Where index.html asks for the first screen: inside #app, before the static Help now block. */
+export const FIRST_SCREEN_MARK = '<!-- first screen -->'
+
+// The service worker's registration has no meaning on a server; the prompt renders closed.
+const NO_SW = '\0rungs-no-service-worker'
+const noServiceWorker: Plugin = {
+  name: 'rungs:no-service-worker',
+  resolveId: (id) => (id === 'virtual:pwa-register/vue' ? NO_SW : undefined),
+  load: (id) => (id === NO_SW ? 'import { ref } from "vue"; export const useRegisterSW = () => ({ needRefresh: ref(false), offlineReady: ref(false), updateServiceWorker: async () => {} })' : undefined),
+}
+
+/** Builds client/prerender/firstScreen.ts for Node with the app's own components and renders both layouts. */
+export async function renderFirstScreens(repoRoot: string): Promise<{ phone: string; wide: string }> {
+  const outDir = path.join(repoRoot, 'node_modules', '.cache', 'rungs-first-screen')
+  await build({
+    configFile: false,
+    root: path.join(repoRoot, 'client'),
+    logLevel: 'warn',
+    resolve: { alias: { '@': path.join(repoRoot, 'client'), '@shared': path.join(repoRoot, 'shared') } },
+    plugins: [vue({ template: { transformAssetUrls }, features: { optionsAPI: false } }), quasar({ sassVariables: false, runMode: 'ssr-server' }), noServiceWorker],
+    // Quasar's server build is imported as source so its flags (__QUASAR_SSR_SERVER__) are set by the plugin above.
+    ssr: { noExternal: [/^quasar/] },
+    build: { ssr: path.join(repoRoot, 'client', 'prerender', 'firstScreen.ts'), outDir, emptyOutDir: true, reportCompressedSize: false, minify: false },
+  })
+  // A query per build, so a second build in one process does not reuse the first module.
+  const mod = (await import(`${pathToFileURL(path.join(outDir, 'firstScreen.js')).href}?at=${Date.now()}`)) as { renderFirstScreen(wide: boolean): Promise<string> }
+  return { phone: await mod.renderFirstScreen(false), wide: await mod.renderFirstScreen(true) }
+}
+
+const DRAWER = '<div class="q-drawer-container"'
+const PAGE = '<div class="q-page-container"'
+
+/**
+ * One screen for every width, as index.html holds it: the phone render (bottom tabs) with the wide render's side drawer
+ * put in; first-paint.css shows the drawer or the tabs by width, as the app's layout does. The page itself is the same
+ * in both renders, so each element is there once (one id, one button for each name).
+ */
+export function firstScreenMarkup({ phone, wide }: { phone: string; wide: string }): string {
+  const from = wide.indexOf(DRAWER)
+  const to = wide.indexOf(PAGE)
+  const at = phone.indexOf(PAGE)
+  if (from < 0 || to < from || at < 0 || phone.includes(DRAWER)) throw new Error('the first screen renders do not have the layout this build expects (a drawer only when wide, then the page)')
+  return `<div class="first-screen">${phone.slice(0, at)}${wide.slice(from, to)}${phone.slice(at)}</div>`
+}
+
+/**
+ * The app's own code is imported by main.ts after the first paint (client/startApp.ts). Its chunks are fetched with the
+ * page all the same (modulepreload: fetched and parsed, not run), and its stylesheets are linked, since the prerendered
+ * screen needs the components' own styles too.
+ */
+export function appChunkTags(bundle: OutputBundle, html: string, base = '/'): string {
+  const chunks = Object.values(bundle).filter((c): c is OutputChunk => c.type === 'chunk')
+  const app = chunks.find((c) => c.facadeModuleId?.replaceAll('\\', '/').endsWith('/client/startApp.ts'))
+  if (!app) throw new Error('the build has no chunk for client/startApp.ts')
+  const byName = new Map(chunks.map((c) => [c.fileName, c]))
+  const seen = new Set<string>()
+  const walk = (c: OutputChunk) => {
+    if (seen.has(c.fileName)) return
+    seen.add(c.fileName)
+    for (const dep of c.imports) walk(byName.get(dep)!)
+  }
+  walk(app)
+  const files = [...seen].map((f) => byName.get(f)!)
+  const css = [...new Set(files.flatMap((c) => [...(c.viteMetadata?.importedCss ?? [])]))]
+  // What index.html already links (the entry and its own stylesheet) is not asked for twice.
+  const fresh = (f: string) => !html.includes(`"${base}${f}"`)
+  return [
+    ...css.filter(fresh).map((f) => `<link rel="stylesheet" crossorigin href="${base}${f}">`),
+    ...files.map((c) => c.fileName).filter(fresh).map((f) => `<link rel="modulepreload" crossorigin href="${base}${f}">`),
+  ].join('\n    ')
+}
+
+/**
+ * Build only: index.html carries Today as a first visit sees it, rendered from the app's components, so a phone paints
+ * the real first screen as soon as the HTML and CSS are in, seconds before the app's code has run. The app replaces it
+ * when it mounts (client/boot/firstScreen.ts carries over anything typed meanwhile).
+ */
+export function firstScreenHtml(repoRoot: string): Plugin {
+  return {
+    name: 'rungs:first-screen-html',
+    apply: 'build',
+    transformIndexHtml: {
+      order: 'post',
+      async handler(html, ctx) {
+        if (!html.includes(FIRST_SCREEN_MARK)) throw new Error(`index.html has no ${FIRST_SCREEN_MARK} mark for the first screen`)
+        const tags = ctx.bundle ? appChunkTags(ctx.bundle, html) : ''
+        return html.replace('</head>', `  ${tags}\n  </head>`).replace(FIRST_SCREEN_MARK, firstScreenMarkup(await renderFirstScreens(repoRoot)))
+      },
+    },
+  }
+}
