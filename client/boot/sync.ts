@@ -38,9 +38,42 @@ export function bootSync(): void {
       }
     },
   )
-  // The server was out of reach at start: ask again when the browser is back online.
-  window.addEventListener('online', () => {
-    if (session.status === 'unreachable') void session.refresh()
-  })
+  askAgainWhileUnreachable(session)
   void session.ready()
+}
+
+/** Waits between asks while the server is out of reach: soon at first, then once a minute. */
+export const UNREACHABLE_RETRY_MS = [5_000, 15_000, 30_000, 60_000]
+
+/**
+ * The server was out of reach at start (offline, or the server itself down): ask again when the browser says it is back
+ * online, when the app comes back into view, and on a timer meanwhile. The timer is needed: a server that comes back
+ * fires no event, and a page opened offline may be told it is online all along, so its 'online' event never comes.
+ * Only a device signed in before is ever unreachable (stores/session.ts); one never signed in makes no request.
+ */
+function askAgainWhileUnreachable(session: ReturnType<typeof useSessionStore>): void {
+  let timer: ReturnType<typeof setTimeout> | undefined
+  let tries = 0
+  const later = () => {
+    clearTimeout(timer)
+    timer = setTimeout(() => void ask(), UNREACHABLE_RETRY_MS[Math.min(tries++, UNREACHABLE_RETRY_MS.length - 1)])
+  }
+  const ask = async () => {
+    clearTimeout(timer)
+    if (session.status !== 'unreachable') return
+    await session.refresh()
+    if (session.status === 'unreachable') later()
+  }
+  watch(
+    () => session.status,
+    (status) => {
+      clearTimeout(timer)
+      tries = 0
+      if (status === 'unreachable') later()
+    },
+  )
+  window.addEventListener('online', () => void ask())
+  document.addEventListener('visibilitychange', () => {
+    if (document.visibilityState === 'visible') void ask()
+  })
 }

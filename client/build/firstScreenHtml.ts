@@ -1,3 +1,4 @@
+import fs from 'node:fs'
 import path from 'node:path'
 import { pathToFileURL } from 'node:url'
 import { quasar, transformAssetUrls } from '@quasar/vite-plugin'
@@ -18,20 +19,26 @@ const noServiceWorker: Plugin = {
 
 /** Builds client/prerender/firstScreen.ts for Node with the app's own components and renders both layouts. */
 export async function renderFirstScreens(repoRoot: string): Promise<{ phone: string; wide: string }> {
-  const outDir = path.join(repoRoot, 'node_modules', '.cache', 'rungs-first-screen')
+  // Inside the repo, so the render's imports (vue, pinia…) resolve; a folder per build, as builds may run side by side.
+  const cache = path.join(repoRoot, 'node_modules', '.cache')
+  fs.mkdirSync(cache, { recursive: true })
+  const outDir = fs.mkdtempSync(path.join(cache, 'rungs-first-screen-'))
   await build({
     configFile: false,
     root: path.join(repoRoot, 'client'),
-    logLevel: 'warn',
+    logLevel: 'error',
     resolve: { alias: { '@': path.join(repoRoot, 'client'), '@shared': path.join(repoRoot, 'shared') } },
     plugins: [vue({ template: { transformAssetUrls }, features: { optionsAPI: false } }), quasar({ sassVariables: false, runMode: 'ssr-server' }), noServiceWorker],
     // Quasar's server build is imported as source so its flags (__QUASAR_SSR_SERVER__) are set by the plugin above.
     ssr: { noExternal: [/^quasar/] },
     build: { ssr: path.join(repoRoot, 'client', 'prerender', 'firstScreen.ts'), outDir, emptyOutDir: true, reportCompressedSize: false, minify: false },
   })
-  // A query per build, so a second build in one process does not reuse the first module.
-  const mod = (await import(`${pathToFileURL(path.join(outDir, 'firstScreen.js')).href}?at=${Date.now()}`)) as { renderFirstScreen(wide: boolean): Promise<string> }
-  return { phone: await mod.renderFirstScreen(false), wide: await mod.renderFirstScreen(true) }
+  try {
+    const mod = (await import(pathToFileURL(path.join(outDir, 'firstScreen.js')).href)) as { renderFirstScreen(wide: boolean): Promise<string> }
+    return { phone: await mod.renderFirstScreen(false), wide: await mod.renderFirstScreen(true) }
+  } finally {
+    fs.rmSync(outDir, { recursive: true, force: true })
+  }
 }
 
 const DRAWER = '<div class="q-drawer-container"'

@@ -53,3 +53,35 @@ describe('sending shares after sign-in', () => {
     }
   })
 })
+
+describe('a server out of reach at start', () => {
+  it('is asked again on a timer, with no online event, and sending starts once it answers', async () => {
+    vi.useFakeTimers({ toFake: ['setTimeout', 'clearTimeout'] })
+    try {
+      setActivePinia(createPinia())
+      await writeSetting('signedInBefore', true)
+      const urls: string[] = []
+      let up = false
+      vi.stubGlobal('fetch', async (url: string) => {
+        urls.push(url)
+        if (!up) throw new TypeError('Failed to fetch')
+        const body = url === '/api/me' ? me('person') : url === '/api/person/links' ? { links: [] } : {}
+        return new Response(JSON.stringify(body), { status: 200, headers: { 'content-type': 'application/json' } })
+      })
+      bootSync()
+      await vi.waitFor(() => expect(urls).toEqual(['/api/me']), { timeout: 4000, interval: 20 })
+      await flushPromises()
+      // Still down at the first retry (5 s), up by the second (15 s later): no 'online' event is ever fired.
+      await vi.advanceTimersByTimeAsync(5_000)
+      await vi.waitFor(() => expect(urls).toEqual(['/api/me', '/api/me']), { timeout: 4000, interval: 20 })
+      up = true
+      await vi.advanceTimersByTimeAsync(14_000)
+      expect(urls.filter((u) => u === '/api/me')).toHaveLength(2)
+      await vi.advanceTimersByTimeAsync(1_000)
+      await vi.waitFor(() => expect(urls).toContain('/api/person/links'), { timeout: 4000, interval: 20 })
+      expect(urls.filter((u) => u === '/api/me')).toHaveLength(3)
+    } finally {
+      vi.useRealTimers()
+    }
+  })
+})

@@ -1,0 +1,130 @@
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { freshContext } from '../helpers/chromium'
+import { startE2eServer } from '../helpers/e2eServer'
+
+// index.html holds Today rendered at build time; the app's code is held back here to look at that screen on its own.
+let server: Awaited<ReturnType<typeof startE2eServer>>
+beforeAll(async () => { server = await startE2eServer() })
+afterAll(async () => { await server?.close() })
+
+/** Opens `path` with the app's entry script held until `release()`: what shows is index.html alone. */
+async function openHeld(page: Page, path = '/'): Promise<() => Promise<void>> {
+  let release!: () => void
+  const gate = new Promise<void>((r) => (release = r))
+  await page.route('**/assets/index-*.js', async (route) => {
+    await gate
+    await route.continue()
+  })
+  await page.goto(server.url + path, { waitUntil: 'commit' })
+  await page.locator('#app').waitFor({ state: 'attached' })
+  await page.waitForLoadState('domcontentloaded', { timeout: 1_000 }).catch(() => undefined)
+  return async () => {
+    release()
+    await page.locator('#app > .q-layout').waitFor()
+  }
+}
+
+const BOXES = ['#moment-title', '[data-test=moment-body]', '#tug-title', '[data-test=help-now]', '#first-run-title']
+async function boxes(page: Page): Promise<Record<string, number[]>> {
+  const out: Record<string, number[]> = {}
+  for (const s of BOXES) {
+    const b = await page.locator(s).boundingBox()
+    out[s] = b ? [b.x, b.y, b.width, b.height].map(Math.round) : []
+  }
+  return out
+}
+
+describe("index.html's prerendered Today in Chromium", () => {
+  for (const [width, height] of [[390, 844], [1280, 800]] as const) {
+    it(`paints before the app's code has run, laid out as the app then lays it out (${width} px)`, async () => {
+      const { context, close } = await freshContext({ width, height })
+      const page = await context.newPage()
+      const release = await openHeld(page)
+      await page.locator('.first-screen #moment-title').waitFor()
+      expect(await page.locator('.static-fallback').isVisible()).toBe(false)
+      expect(await page.locator('.first-screen .q-footer').isVisible()).toBe(width < 1024)
+      expect(await page.locator('.first-screen .q-drawer').isVisible()).toBe(width >= 1024)
+      const before = await boxes(page)
+      await release()
+      await page.locator('#app > .q-layout #moment-title').waitFor()
+      expect(await page.locator('.first-screen').count()).toBe(0)
+      const after = await boxes(page)
+      for (const s of BOXES) {
+        expect(before[s]!.length, s).toBe(4)
+        // Within a pixel: the app's textarea may grow by one as it measures itself.
+        before[s]!.forEach((v, i) => expect(Math.abs(v - after[s]![i]!), `${s} [${i}] ${before[s]} → ${after[s]}`).toBeLessThanOrEqual(1))
+      }
+      await close()
+    })
+  }
+
+  it('carries what was typed before the app started into the app form, where it is kept as a draft', async () => {
+    const { context, close } = await freshContext()
+    const page = await context.newPage()
+    const release = await openHeld(page)
+    const early = page.locator('.first-screen [data-test=moment-body]')
+    await early.click()
+    await page.keyboard.type('The bus was late and I snapped at Dee')
+    await release()
+    const field = page.locator('#app > .q-layout [data-test=moment-body]')
+    await expect.poll(() => field.inputValue()).toBe('The bus was late and I snapped at Dee')
+    expect(await field.evaluate((el) => el === document.activeElement)).toBe(true)
+    await page.keyboard.type('.')
+    await page.waitForTimeout(1_500)
+    await page.reload()
+    await expect.poll(() => page.locator('#app > .q-layout [data-test=moment-body]').inputValue(), { timeout: 10_000 }).toBe('The bus was late and I snapped at Dee.')
+    await close()
+  })
+
+  it("shows the emergency numbers at once when Help now is tapped before the app started, then the app's Help now", async () => {
+    const { context, close } = await freshContext()
+    const page = await context.newPage()
+    const release = await openHeld(page)
+    await page.locator('.first-screen [data-test=help-now]').click()
+    await page.locator('.static-fallback').waitFor({ state: 'visible', timeout: 1_000 })
+    expect(await page.locator('.static-fallback a[href="tel:999"]').first().isVisible()).toBe(true)
+    await release()
+    const dialog = page.getByRole('dialog')
+    await dialog.getByRole('heading', { name: 'Help now' }).waitFor()
+    expect(await dialog.locator('[data-test=emergency-call]').getAttribute('href')).toBe('tel:999')
+    await close()
+  })
+
+  it('shows the emergency numbers at once when the app code fails to load', async () => {
+    const { context, close } = await freshContext()
+    const page = await context.newPage()
+    await page.route('**/assets/*.js', (route) => route.abort())
+    await page.goto(server.url)
+    await page.locator('.static-fallback').waitFor({ state: 'visible', timeout: 2_000 })
+    expect(await page.locator('.static-fallback a[href="tel:988"]').isVisible()).toBe(true)
+    await close()
+  })
+
+  it('is not shown at another address, nor when a lock is set: the plain loading block is', async () => {
+    const { context, close } = await freshContext()
+    const page = await context.newPage()
+    const release = await openHeld(page, '/journal')
+    await page.locator('.static-fallback').waitFor({ state: 'visible', timeout: 2_000 })
+    expect(await page.locator('.first-screen').isVisible()).toBe(false)
+    await release()
+    await page.unrouteAll()
+    await context.addInitScript(() => localStorage.setItem('rungs.lockSet', 'yes'))
+    const locked = await context.newPage()
+    await openHeld(locked)
+    await locked.locator('.static-fallback').waitFor({ state: 'visible', timeout: 2_000 })
+    expect(await locked.locator('.first-screen').isVisible()).toBe(false)
+    await close()
+  })
+
+  it('leaves out the first-run notice once it was acknowledged, and paints dark on a dark device', async () => {
+    const { context, close } = await freshContext({ colorScheme: 'dark' })
+    await context.addInitScript(() => localStorage.setItem('rungs.firstRunSeen', 'yes'))
+    const page = await context.newPage()
+    await openHeld(page)
+    await page.locator('.first-screen #moment-title').waitFor()
+    expect(await page.locator('.first-screen [data-test=first-run]').isVisible()).toBe(false)
+    expect(await page.evaluate(() => document.body.classList.contains('body--dark'))).toBe(true)
+    await close()
+  })
+})
