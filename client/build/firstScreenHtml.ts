@@ -58,11 +58,12 @@ export function firstScreenMarkup({ phone, wide }: { phone: string; wide: string
 }
 
 /**
- * The app's own code is imported by main.ts after the first paint (client/startApp.ts). Its chunks are fetched with the
- * page all the same (modulepreload: fetched and parsed, not run), and its stylesheets are linked, since the prerendered
- * screen needs the components' own styles too.
+ * The app's own code is imported by main.ts after the first paint (client/startApp.ts), and the prerendered screen needs
+ * the components' styles as well as the entry's: index.html links every stylesheet of that chunk and the chunks it
+ * imports. The code itself is not preloaded: measured, a modulepreload of it held back the stylesheets and fonts on a
+ * slow network and the first paint from the service worker (npm run bench -- pages).
  */
-export function appChunkTags(bundle: OutputBundle, html: string, base = '/'): string {
+export function appChunkCss(bundle: OutputBundle, html: string, base = '/'): string {
   const chunks = Object.values(bundle).filter((c): c is OutputChunk => c.type === 'chunk')
   const app = chunks.find((c) => c.facadeModuleId?.replaceAll('\\', '/').endsWith('/client/startApp.ts'))
   if (!app) throw new Error('the build has no chunk for client/startApp.ts')
@@ -74,14 +75,12 @@ export function appChunkTags(bundle: OutputBundle, html: string, base = '/'): st
     for (const dep of c.imports) walk(byName.get(dep)!)
   }
   walk(app)
-  const files = [...seen].map((f) => byName.get(f)!)
-  const css = [...new Set(files.flatMap((c) => [...(c.viteMetadata?.importedCss ?? [])]))]
-  // What index.html already links (the entry and its own stylesheet) is not asked for twice.
-  const fresh = (f: string) => !html.includes(`"${base}${f}"`)
-  return [
-    ...css.filter(fresh).map((f) => `<link rel="stylesheet" crossorigin href="${base}${f}">`),
-    ...files.map((c) => c.fileName).filter(fresh).map((f) => `<link rel="modulepreload" crossorigin href="${base}${f}">`),
-  ].join('\n    ')
+  const css = [...new Set([...seen].flatMap((f) => [...(byName.get(f)!.viteMetadata?.importedCss ?? [])]))]
+  // What index.html already links (the entry's own stylesheet) is not asked for twice.
+  return css
+    .filter((f) => !html.includes(`"${base}${f}"`))
+    .map((f) => `<link rel="stylesheet" crossorigin href="${base}${f}">`)
+    .join('\n    ')
 }
 
 /**
@@ -97,7 +96,7 @@ export function firstScreenHtml(repoRoot: string): Plugin {
       order: 'post',
       async handler(html, ctx) {
         if (!html.includes(FIRST_SCREEN_MARK)) throw new Error(`index.html has no ${FIRST_SCREEN_MARK} mark for the first screen`)
-        const tags = ctx.bundle ? appChunkTags(ctx.bundle, html) : ''
+        const tags = ctx.bundle ? appChunkCss(ctx.bundle, html) : ''
         return html.replace('</head>', `  ${tags}\n  </head>`).replace(FIRST_SCREEN_MARK, firstScreenMarkup(await renderFirstScreens(repoRoot)))
       },
     },

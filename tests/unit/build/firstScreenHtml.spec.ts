@@ -1,7 +1,7 @@
 import path from 'node:path'
 import type { OutputBundle } from 'rolldown'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { appChunkTags, firstScreenMarkup, renderFirstScreens } from '../../../client/build/firstScreenHtml'
+import { appChunkCss, firstScreenMarkup, renderFirstScreens } from '../../../client/build/firstScreenHtml'
 
 const repoRoot = path.resolve(__dirname, '../../..')
 const count = (html: string, needle: string) => html.split(needle).length - 1
@@ -49,28 +49,28 @@ describe('the first screen rendered at build time', () => {
   })
 })
 
-describe("index.html's tags for the app's own chunks", () => {
+describe("index.html's stylesheets for the app's own chunks", () => {
   const chunk = (fileName: string, facadeModuleId: string | null, imports: string[], css: string[]) =>
     ({ type: 'chunk', fileName, facadeModuleId, imports, viteMetadata: { importedCss: new Set(css), importedAssets: new Set() } }) as unknown
   const bundle = {
     'assets/index-a.js': chunk('assets/index-a.js', '/repo/client/main.ts', [], ['assets/index-a.css']),
     'assets/startApp-b.js': chunk('assets/startApp-b.js', '/repo/client/startApp.ts', ['assets/shared-c.js', 'assets/index-a.js'], ['assets/startApp-b.css']),
-    'assets/shared-c.js': chunk('assets/shared-c.js', null, [], []),
+    'assets/shared-c.js': chunk('assets/shared-c.js', null, [], ['assets/shared-c.css']),
     'assets/JournalPage-d.js': chunk('assets/JournalPage-d.js', '/repo/client/pages/JournalPage.vue', [], ['assets/JournalPage-d.css']),
   } as unknown as OutputBundle
   const html = '<script type="module" src="/assets/index-a.js"></script><link rel="stylesheet" href="/assets/index-a.css">'
 
-  it("links the app chunk's stylesheets and preloads it with its imports, once each, and nothing lazy", () => {
-    const tags = appChunkTags(bundle, html)
+  it("links the stylesheets of the app chunk and of what it imports, once each, and nothing of lazy pages", () => {
+    const tags = appChunkCss(bundle, html)
     expect(tags).toContain('<link rel="stylesheet" crossorigin href="/assets/startApp-b.css">')
-    expect(tags).toContain('<link rel="modulepreload" crossorigin href="/assets/startApp-b.js">')
-    expect(tags).toContain('<link rel="modulepreload" crossorigin href="/assets/shared-c.js">')
+    expect(tags).toContain('<link rel="stylesheet" crossorigin href="/assets/shared-c.css">')
     expect(tags).not.toContain('index-a')
     expect(tags).not.toContain('JournalPage')
+    expect(tags).not.toContain('.js')
   })
 
   it('fails the build when there is no app chunk', () => {
     const { 'assets/startApp-b.js': _app, ...rest } = bundle as Record<string, unknown>
-    expect(() => appChunkTags(rest as OutputBundle, html)).toThrow(/startApp/)
+    expect(() => appChunkCss(rest as OutputBundle, html)).toThrow(/startApp/)
   })
 })
