@@ -7,10 +7,11 @@ import './css/brand.css'
 import './css/app.css'
 
 // index.html already holds Today, rendered at build time (client/build/firstScreenHtml.ts). Running the app's code takes
-// a slow phone a second or more, and a browser that has the code at hand (from the service worker) runs it before it
-// paints anything, so the app starts only once that screen is on the glass. A hidden tab paints nothing: it starts at once.
+// a slow phone a second or more. A page the service worker serves has that code at hand and would run it before painting
+// anything, so there the app starts once the screen is on the glass. Over the network the code arrives after the screen
+// has painted anyway, so it is asked for at once. A hidden tab paints nothing: it starts at once too.
 const start = () => {
   import('./startApp').catch(() => document.documentElement.classList.add('rungs-app-failed'))
 }
-if (document.visibilityState === 'hidden') start()
-else requestAnimationFrame(() => setTimeout(start))
+if (navigator.serviceWorker?.controller && document.visibilityState !== 'hidden') requestAnimationFrame(() => setTimeout(start))
+else start()
