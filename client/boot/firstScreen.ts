@@ -17,15 +17,26 @@ export function readEarlyUse(doc: Document = document): EarlyUse {
   return { text: field?.value ?? '', focused: !!field && field === doc.activeElement, helpAsked: doc.documentElement.classList.contains(HELP_ASKED) }
 }
 
-/** Resolves with the element once it is in the app's own screen (a page behind Suspense renders a moment after mount). */
-function appElement<T extends Element>(doc: Document, selector: string, frames = 120): Promise<T | null> {
+/**
+ * Resolves with the element as soon as it is in the app's own screen: a page behind Suspense is inserted a moment after
+ * mount, and a MutationObserver answers in the same task, before any key the person presses meanwhile could go astray.
+ */
+function appElement<T extends Element>(doc: Document, selector: string, waitMs = 3_000): Promise<T | null> {
+  const find = () => doc.querySelector<T>(`#app > :not(.first-screen) ${selector}`)
+  const now = find()
+  if (now) return Promise.resolve(now)
   return new Promise((resolve) => {
-    const look = (left: number) => {
-      const el = doc.querySelector<T>(`#app > :not(.first-screen) ${selector}`)
-      if (el || left <= 0) resolve(el)
-      else requestAnimationFrame(() => look(left - 1))
+    const done = (el: T | null) => {
+      observer.disconnect()
+      clearTimeout(timer)
+      resolve(el)
     }
-    look(frames)
+    const observer = new MutationObserver(() => {
+      const el = find()
+      if (el) done(el)
+    })
+    observer.observe(doc.body, { childList: true, subtree: true })
+    const timer = setTimeout(() => done(find()), waitMs)
   })
 }
 

@@ -91,16 +91,6 @@ describe("index.html's prerendered Today in Chromium", () => {
     await close()
   })
 
-  it('shows the emergency numbers at once when the app code fails to load', async () => {
-    const { context, close } = await freshContext()
-    const page = await context.newPage()
-    await page.route('**/assets/*.js', (route) => route.abort())
-    await page.goto(server.url)
-    await page.locator('.static-fallback').waitFor({ state: 'visible', timeout: 2_000 })
-    expect(await page.locator('.static-fallback a[href="tel:988"]').isVisible()).toBe(true)
-    await close()
-  })
-
   it('is not shown at another address, nor when a lock is set: the plain loading block is', async () => {
     const { context, close } = await freshContext()
     const page = await context.newPage()

@@ -88,6 +88,8 @@ describe('the app shell in Chromium', () => {
     const page = await context.newPage()
     await page.route('**/assets/*.js', (route) => route.abort())
     await page.goto(server.url)
+    // Shown at once over the prerendered Today (public/first-paint.js sees the script fail), not after its 8 s wait.
+    await page.locator('.static-fallback').waitFor({ state: 'visible', timeout: 2_000 })
     const text = await page.locator('#app').textContent()
     expect(text).toContain('call your local emergency number')
     expect(await page.locator('a[href="tel:999"]').count()).toBeGreaterThan(0)

@@ -55,6 +55,22 @@ describe('what was done on the prerendered first screen', () => {
     expect(document.documentElement.classList.contains('rungs-help-asked')).toBe(false)
   })
 
+  it('waits for a page the app inserts after mounting (behind Suspense) and fills it the moment it is there', async () => {
+    prerendered().value = 'Said yes again when I meant no'
+    const use = readEarlyUse()
+    document.querySelector('#app')!.innerHTML = '<div class="q-layout"></div>'
+    const carried = carryEarlyUse(use)
+    let filledInSameTask = false
+    setTimeout(() => {
+      document.querySelector('#app .q-layout')!.innerHTML = '<textarea data-test="moment-body"></textarea>'
+      // MutationObserver callbacks run as microtasks, before the next task (a key press) could arrive.
+      queueMicrotask(() => queueMicrotask(() => (filledInSameTask = document.querySelector('textarea')!.value !== '')))
+    }, 20)
+    await carried
+    expect(document.querySelector('textarea')!.value).toBe('Said yes again when I meant no')
+    expect(filledInSameTask).toBe(true)
+  })
+
   it('leaves the app alone when nothing was done', async () => {
     prerendered()
     const use = readEarlyUse()
