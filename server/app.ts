@@ -8,7 +8,7 @@ import { createSessionMiddleware } from './auth/session'
 import { sessionUsers } from './auth/loadSessionUser'
 import { createPassport } from './auth/passport'
 import type { AppDeps } from './deps'
-import { httpLogger } from './log/logger'
+import { httpLogger, requestIds } from './log/logger'
 import { errorHandler } from './middleware/errorHandler'
 import { notFound } from './middleware/notFound'
 import { sessionTimeouts } from './middleware/sessionTimeouts'
@@ -19,6 +19,7 @@ import { sentMailRoutes } from './modules/mail/mail.routes'
 import { measuresRoutes } from './modules/measures/measures.routes'
 import { meRoutes } from './modules/me/me.routes'
 import { personRoutes } from './modules/person/person.routes'
+import { caseloadFingerprintRider } from './modules/prep/caseloadCache'
 import { prepRoutes } from './modules/prep/prep.routes'
 import { privacyRoutes } from './modules/privacy/privacy.routes'
 import { sharesRoutes } from './modules/shares/shares.routes'
@@ -71,15 +72,16 @@ export function createApp(deps: AppDeps): Express & { stop: () => void } {
   app.set('trust proxy', config.trustProxy ? 1 : false)
   app.use(securityHeaders(config.appUrl.startsWith('https:')))
   // Every request gets an id (X-Request-Id) and req.log; LOG_REQUESTS decides whether each one is also logged.
-  app.use(httpLogger(deps.log, config.logRequests))
+  app.use(config.logRequests ? httpLogger(deps.log) : requestIds(deps.log, app.request))
   // The app's own files are compressed; /api answers are not, since they can hold a CSRF token next to text a request
   // chose (the BREACH attack on compressed secrets).
   // Mounted past /api altogether: wrapping every API response only to decline it cost about a tenth of a caseload request.
   const compress = compression()
   app.use((req, res, next) => (req.path.startsWith('/api') ? next() : compress(req, res, next)))
 
-  // The session read brings the signed-in user along for passport: one statement per request instead of two.
-  const users = sessionUsers(deps.models)
+  // The session read brings the signed-in user along for passport, and a therapist's caseload fingerprint: one statement
+  // per request instead of two (three for a cached caseload).
+  const users = sessionUsers(deps.models, caseloadFingerprintRider)
   const session = createSessionMiddleware(config, deps.sequelize, users)
   const passport = createPassport(deps.models, config.scryptCost, users)
   const csrf = csrfSync({ getTokenFromRequest: (req) => req.get('x-csrf-token') })

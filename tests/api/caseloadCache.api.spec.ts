@@ -1,8 +1,9 @@
 import { randomUUID } from 'node:crypto'
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest'
 import { caseloadRowSchema, type CaseloadRow } from '../../shared/schemas/prep.schema'
-import { sessionUsers } from '../../server/auth/loadSessionUser'
-import { caseloadCache, caseloadFingerprint } from '../../server/modules/prep/caseloadCache'
+import sqlite3 from 'sqlite3'
+import { sessionRider, sessionUsers } from '../../server/auth/loadSessionUser'
+import { CASELOAD_FINGERPRINT_RIDER, caseloadCache, caseloadFingerprint, caseloadFingerprintRider } from '../../server/modules/prep/caseloadCache'
 import { caseload } from '../../server/modules/prep/prep.service'
 import { agentWithCsrf, makeTestApp, type TestApp } from '../helpers/testApp'
 import { demo, linkUp, makePerson, makeTherapist, put, signedInAs, type Agent } from './linkFixtures'
@@ -60,6 +61,28 @@ const routeRows = async (a: Agent) => {
   return (res.body.caseload as unknown[]).map((r) => caseloadRowSchema.parse(r))
 }
 const routeRow = async (a: Agent, linkId: string) => (await routeRows(a)).find((r) => r.linkId === linkId)
+
+/**
+ * Counts the SQL statements the app sends from now on. SQLite: every statement of the driver runs through one of its
+ * Statement methods (plainSelect's own, and Sequelize's through Database.all and run), or Database.exec. PostgreSQL:
+ * plainSelect and Sequelize both go through sequelize.query.
+ */
+function countStatements() {
+  const spies =
+    t.deps.sequelize.getDialect() === 'sqlite'
+      ? [
+          ...(['all', 'run', 'get', 'each'] as const).map((m) => vi.spyOn(sqlite3.Statement.prototype, m)),
+          vi.spyOn(sqlite3.Database.prototype, 'exec'),
+        ]
+      : [vi.spyOn(t.deps.sequelize, 'query')]
+  return {
+    stop() {
+      const n = spies.reduce((sum, s) => sum + s.mock.calls.length, 0)
+      for (const s of spies) s.mockRestore()
+      return n
+    },
+  }
+}
 
 /** Warms both the counting cache and the route's own, and checks a second read is served without building. */
 async function warm(w: ReturnType<typeof watch>, therapist: Agent, linkId: string) {
@@ -321,6 +344,35 @@ describe('the per-request reads in front of the caseload', () => {
     // Taken once: a second take for the same session finds nothing.
     expect(users.take(sid, th.user.id)).toBeUndefined()
     expect(await users.readSession(String(t.deps.models.Session.getTableName()), 'no-such-session')).toBeNull()
+  })
+
+  it('answers a cached caseload with one statement, the session read, which brings the fingerprint along', async () => {
+    const { th, p, therapist, person, linkId } = await pair('Seren')
+    // The first builds the answer; the second is a cache hit after any session write of this minute is done.
+    await routeRows(therapist)
+    await routeRows(therapist)
+    const count = countStatements()
+    const rows = await routeRows(therapist)
+    expect(count.stop()).toBe(1)
+    expect(rows.map((r) => r.linkId)).toEqual([linkId])
+
+    const users = sessionUsers(t.deps.models, caseloadFingerprintRider)
+    const table = String(t.deps.models.Session.getTableName())
+    const sidOf = async (id: string) => (await t.deps.models.Session.findOne({ where: { userId: id } }))!.sid
+    const [sidT, sidP] = [await sidOf(th.user.id), await sidOf(p.user.id)]
+    await users.readSession(table, sidT)
+    const read = users.take(sidT, th.user.id)
+    expect(sessionRider(read, CASELOAD_FINGERPRINT_RIDER)).toBe(await caseloadFingerprint(t.deps, th.user.id))
+    // A write moves the fingerprint the next session read brings, so the cached answer is not reused.
+    await put(person, linkId, randomUUID(), 1, 'seren').expect(200)
+    await users.readSession(table, sidT)
+    const after = sessionRider(users.take(sidT, th.user.id), CASELOAD_FINGERPRINT_RIDER)
+    expect(after).not.toBe(sessionRider(read, CASELOAD_FINGERPRINT_RIDER))
+    expect(after).toBe(await caseloadFingerprint(t.deps, th.user.id))
+    expect((await routeRow(therapist, linkId))!.newSinceLastSession).toBe(1)
+    // Only therapists have a caseload: a person's session brings no fingerprint.
+    await users.readSession(table, sidP)
+    expect(sessionRider(users.take(sidP, p.user.id), CASELOAD_FINGERPRINT_RIDER)).toBeNull()
   })
 
   it('builds each user as an instance of its own, though the include is checked once for all of them', async () => {

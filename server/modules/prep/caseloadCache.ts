@@ -21,7 +21,18 @@ interface Cached extends CaseloadAnswer {
   expiresAt: number
 }
 
-const FINGERPRINT_SQL = 'SELECT COUNT(*) AS "n", COALESCE(SUM("caseloadVersion"), 0) AS "v" FROM "links" WHERE "therapistId" = ?'
+/** The fingerprint of the links of the therapist whose id `therapistId` (SQL) names, as one text: count, then sum. */
+const fingerprintOf = (therapistId: string) =>
+  `SELECT CAST(COUNT(*) AS TEXT) || ':' || CAST(COALESCE(SUM(l."caseloadVersion"), 0) AS TEXT) FROM "links" AS l WHERE l."therapistId" = ${therapistId}`
+
+const FINGERPRINT_SQL = `SELECT (${fingerprintOf('?')}) AS "f"`
+
+/**
+ * The fingerprint as a rider of the session read (auth/loadSessionUser.ts), for therapists only: a cached caseload then
+ * costs one statement per request, the session's, instead of two.
+ */
+export const CASELOAD_FINGERPRINT_RIDER = 'caseloadFingerprint'
+export const caseloadFingerprintRider = { [CASELOAD_FINGERPRINT_RIDER]: `CASE WHEN u."role" = 'therapist' THEN (${fingerprintOf('u."id"')}) END` }
 
 /**
  * The database's word on whether a therapist's caseload changed: the number of their links and the sum of the links'
@@ -30,8 +41,8 @@ const FINGERPRINT_SQL = 'SELECT COUNT(*) AS "n", COALESCE(SUM("caseloadVersion")
  * whichever instance wrote it.
  */
 export async function caseloadFingerprint(deps: Deps, therapistId: string): Promise<string> {
-  const [row] = await plainSelect<{ n: number | string; v: number | string }>(deps.sequelize, FINGERPRINT_SQL, [therapistId])
-  return `${row?.n ?? 0}:${row?.v ?? 0}`
+  const [row] = await plainSelect<{ f: string }>(deps.sequelize, FINGERPRINT_SQL, [therapistId])
+  return String(row?.f ?? '0:0')
 }
 
 /** When the answer built at `now` stops being true by the clock alone: the earliest coming appointment turns into the last session. */
@@ -69,8 +80,9 @@ export function caseloadCache(deps: Deps, options: { maxTherapists?: number; bui
   }
 
   return {
-    async get(therapistId: string): Promise<CaseloadAnswer> {
-      const fingerprint = await caseloadFingerprint(deps, therapistId)
+    /** `readAhead`: the fingerprint as the session read of this same request brought it (caseloadFingerprintRider). */
+    async get(therapistId: string, readAhead?: string): Promise<CaseloadAnswer> {
+      const fingerprint = readAhead ?? (await caseloadFingerprint(deps, therapistId))
       const now = clock(deps).getTime()
       const hit = entries.get(therapistId)
       if (hit && hit.fingerprint === fingerprint && hit.builtAt <= now && now < hit.expiresAt) {

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express'
 import type { AppDeps } from '../../deps'
-import { caseloadCache } from './caseloadCache'
+import { sessionRider } from '../../auth/loadSessionUser'
+import { CASELOAD_FINGERPRINT_RIDER, caseloadCache } from './caseloadCache'
 import * as prep from './prep.service'
 
 export function prepController(deps: AppDeps) {
@@ -9,7 +10,8 @@ export function prepController(deps: AppDeps) {
   const ids = (p: Record<string, unknown>) => ({ linkId: String(p.linkId), noteId: String(p.noteId), entryId: String(p.entryId) })
   return {
     caseload: (async (req, res) => {
-      const { body, etag } = await caseloads.get(req.user!.id)
+      const readAhead = sessionRider(req.user, CASELOAD_FINGERPRINT_RIDER)
+      const { body, etag } = await caseloads.get(req.user!.id, typeof readAhead === 'string' ? readAhead : undefined)
       // With the ETag set, res.send answers a matching If-None-Match with 304 and does not hash the body again.
       res.setHeader('ETag', etag)
       res.type('json').send(body)
