@@ -27,7 +27,8 @@ describe('the app shell in Chromium', () => {
     const { context, close } = await freshContext()
     const page = await context.newPage()
     await page.goto(server.url)
-    await page.getByRole('heading', { name: 'A moment', exact: true }).waitFor()
+    // The app's own screen, not index.html's prerendered copy of it.
+    await page.locator('#app > .q-layout').getByRole('heading', { name: 'A moment', exact: true }).waitFor()
     expect(await page.title()).toBe('Today · Rungs')
     await close()
   })
