@@ -1,26 +1,18 @@
 import { fileURLToPath, URL } from 'node:url'
-import { quasar, transformAssetUrls } from '@quasar/vite-plugin'
-import vue from '@vitejs/plugin-vue'
 import { VitePWA } from 'vite-plugin-pwa'
 import { defineConfig } from 'vitest/config'
+import { appAliases, appQuasar, appVue } from './client/build/appCompile'
 import { firstScreenHtml } from './client/build/firstScreenHtml'
 import { unusedQuasarCss } from './client/build/unusedQuasarCss'
 
 export default defineConfig({
   root: 'client',
   publicDir: fileURLToPath(new URL('./public', import.meta.url)),
-  resolve: {
-    alias: {
-      '@': fileURLToPath(new URL('./client', import.meta.url)),
-      '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
-    },
-  },
+  resolve: { alias: appAliases(fileURLToPath(new URL('.', import.meta.url))) },
   plugins: [
-    // Every component (Rungs' and Quasar's) uses setup(), so Vue's Options API code is left out of the build.
-    vue({ template: { transformAssetUrls }, features: { optionsAPI: false } }),
-    // After vue(), as the Quasar plugin requires. Brand colours live in client/css/brand.css as CSS variables,
-    // so the prebuilt Quasar CSS is used and no sass compiler is needed.
-    quasar({ sassVariables: false }),
+    // Shared with the build-time render of the first screen (client/build/appCompile.ts).
+    appVue(),
+    appQuasar(),
     // Quasar's stylesheet covers every component it has; the build keeps the rules the app's code can use.
     unusedQuasarCss(fileURLToPath(new URL('./client', import.meta.url))),
     // index.html carries Today rendered from the app's components, so the first screen paints before the app's code runs.

@@ -1,10 +1,9 @@
 import fs from 'node:fs'
 import path from 'node:path'
 import { pathToFileURL } from 'node:url'
-import { quasar, transformAssetUrls } from '@quasar/vite-plugin'
-import vue from '@vitejs/plugin-vue'
 import type { OutputBundle, OutputChunk } from 'rolldown'
 import { build, type Plugin } from 'vite'
+import { appAliases, appQuasar, appVue } from './appCompile'
 
 /** Where index.html asks for the first screen: inside #app, before the static Help now block. */
 export const FIRST_SCREEN_MARK = '<!-- first screen -->'
@@ -27,8 +26,8 @@ export async function renderFirstScreens(repoRoot: string): Promise<{ phone: str
     configFile: false,
     root: path.join(repoRoot, 'client'),
     logLevel: 'error',
-    resolve: { alias: { '@': path.join(repoRoot, 'client'), '@shared': path.join(repoRoot, 'shared') } },
-    plugins: [vue({ template: { transformAssetUrls }, features: { optionsAPI: false } }), quasar({ sassVariables: false, runMode: 'ssr-server' }), noServiceWorker],
+    resolve: { alias: appAliases(repoRoot) },
+    plugins: [appVue(), appQuasar('ssr-server'), noServiceWorker],
     // Quasar's server build is imported as source so its flags (__QUASAR_SSR_SERVER__) are set by the plugin above.
     ssr: { noExternal: [/^quasar/] },
     build: { ssr: path.join(repoRoot, 'client', 'prerender', 'firstScreen.ts'), outDir, emptyOutDir: true, reportCompressedSize: false, minify: false },
@@ -58,7 +57,8 @@ export function firstScreenMarkup({ phone, wide }: { phone: string; wide: string
 }
 
 /**
- * The app's own code is imported by main.ts after the first paint (client/startApp.ts), and the prerendered screen needs
+ * The app's own code is imported by main.ts (client/startApp.ts; after the first paint when the service worker serves
+ * the page), and the prerendered screen needs
  * the components' styles as well as the entry's: index.html links every stylesheet of that chunk and the chunks it
  * imports. The code itself is not preloaded: measured, a modulepreload of it held back the stylesheets and fonts on a
  * slow network and the first paint from the service worker (npm run bench -- pages).
