@@ -70,6 +70,16 @@ describe("index.html's prerendered Today in Chromium", () => {
     })
   }
 
+  it('holds its first paint until the whole screen is parsed, so it never shows the header alone', async () => {
+    const html = await (await fetch(server.url + '/')).text()
+    const head = html.slice(0, html.indexOf('</head>'))
+    expect(head).toMatch(/<link rel="expect" href="#fallback-title" blocking="render"/)
+    // The element waited for comes after all of Today, in every layout.
+    const at = html.indexOf('id="fallback-title"')
+    for (const part of ['data-test="tug-start"', 'q-footer', 'q-drawer', 'data-test="help-now"']) expect(html.indexOf(part), part).toBeGreaterThan(0)
+    for (const part of ['data-test="tug-start"', 'q-footer', 'q-drawer']) expect(html.lastIndexOf(part), part).toBeLessThan(at)
+  })
+
   it('carries what was typed before the app started into the app form, where it is kept as a draft', async () => {
     const { context, close } = await freshContext()
     const page = await context.newPage()
