@@ -14,7 +14,7 @@ const PEOPLE = 200
 const CONNECTIONS = 50
 const SECONDS = 10
 // Each server first gets a few seconds of the same load, not counted: the figures are for a server that has been running,
-// not one whose code V8 has yet to optimise (the first seconds after a start show a p99 about half as high again).
+// not one whose code V8 has yet to optimise (in the first seconds after a start the p99 was two to three times as high).
 const WARM_UP_SECONDS = 5
 // One at a time first, so the cost of a single request is seen apart from queueing.
 const SEQUENTIAL = 10
