@@ -25,6 +25,15 @@ async function openHeld(page: Page, path = '/'): Promise<() => Promise<void>> {
   }
 }
 
+/** The faces DESIGN.md names: Lora for headings and entry text, the system UI font for controls. */
+async function faces(page: Page): Promise<string[]> {
+  const face = (s: string) => page.locator(s).first().evaluate((el) => getComputedStyle(el).fontFamily)
+  return [await face('#moment-title'), await face('[data-test=help-now]'), await face('[data-test=moment-body]')]
+}
+// A heading, Help now (a control), the moment's text. Short stacks: each family the device lacks is one more lookup in
+// the first layout (client/css/app.css).
+const FACES = ['Lora, serif', 'system-ui, sans-serif', 'Lora, serif']
+
 const BOXES = ['#moment-title', '[data-test=moment-body]', '#tug-title', '[data-test=help-now]', '#first-run-title']
 async function boxes(page: Page): Promise<Record<string, number[]>> {
   const out: Record<string, number[]> = {}
@@ -46,9 +55,11 @@ describe("index.html's prerendered Today in Chromium", () => {
       expect(await page.locator('.first-screen .q-footer').isVisible()).toBe(width < 1024)
       expect(await page.locator('.first-screen .q-drawer').isVisible()).toBe(width >= 1024)
       const before = await boxes(page)
+      expect(await faces(page)).toEqual(FACES)
       await release()
       await page.locator('#app > .q-layout #moment-title').waitFor()
       expect(await page.locator('.first-screen').count()).toBe(0)
+      expect(await faces(page)).toEqual(FACES)
       const after = await boxes(page)
       for (const s of BOXES) {
         expect(before[s]!.length, s).toBe(4)
