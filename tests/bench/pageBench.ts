@@ -132,6 +132,19 @@ interface Lcp {
   /** When the app's own first screen (not index.html's static block) was first painted; 0 when it never was. */
   appMs: number
   controlled: boolean
+  phases: Phases
+}
+
+/** Where a load's time went, in ms from the navigation's start (Navigation and Resource Timing). */
+interface Phases {
+  /** index.html fully received. */
+  html: number
+  /** The first file it asks for: the gap after `html` is the renderer committing the new document. */
+  firstAsk: number
+  /** The last render-blocking stylesheet or script received. */
+  blockingIn: number
+  /** Parsing done (domInteractive); from here to FCP is style, layout and paint of the whole screen. */
+  parsed: number
 }
 
 // The app's first screen counts as painted at the first animation frame after its layout is in the DOM, seen by a
@@ -165,7 +178,15 @@ async function readLcp(page: Page): Promise<Lcp> {
   await page.waitForTimeout(1_000)
   const seen = await page.evaluate(() => {
     const w = window as unknown as { __lcp: { candidates: LcpCandidate[]; fcp: number; appMs: number } }
-    return { ...w.__lcp, controlled: !!navigator.serviceWorker?.controller }
+    const nav = performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming
+    const files = (performance.getEntriesByType('resource') as (PerformanceResourceTiming & { renderBlockingStatus?: string })[]).filter((r) => r.startTime < nav.domInteractive)
+    const phases = {
+      html: nav.responseEnd,
+      firstAsk: Math.min(...files.map((r) => r.startTime)),
+      blockingIn: Math.max(0, ...files.filter((r) => r.renderBlockingStatus === 'blocking').map((r) => r.responseEnd)),
+      parsed: nav.domInteractive,
+    }
+    return { ...w.__lcp, controlled: !!navigator.serviceWorker?.controller, phases }
   })
   const last = seen.candidates[seen.candidates.length - 1]
   return { ...seen, ms: last?.ms ?? 0, element: last?.element ?? '(no candidate)', staticBlock: last?.staticBlock ?? false, prerendered: last?.prerendered ?? false }
@@ -234,6 +255,10 @@ export async function benchPages(tmp: string, onClose: (close: () => Promise<voi
   const warm = median(runs.map((r) => r.warm.ms))
   const coldPlain = median(plainRuns.map((r) => r.ms))
   const list = (xs: number[]) => xs.map((x) => ms(x)).join(', ')
+  const phases = (lcps: Lcp[]) => {
+    const at = (k: keyof Phases) => `${ms(median(lcps.map((r) => r.phases[k])))}`
+    return row('  where the time went (medians, ms from the start)', '', `   index.html in ${at('html')}, first file asked for ${at('firstAsk')}, render-blocking files in ${at('blockingIn')}, parsed ${at('parsed')}, FCP ${ms(median(lcps.map((r) => r.fcp)))}`)
+  }
   // Each run's candidates in order ("time ms size px² element"), the last one being the LCP.
   const perRun = (label: string, lcps: Lcp[]) =>
     lcps.flatMap((r, i) => [
@@ -256,12 +281,14 @@ export async function benchPages(tmp: string, onClose: (close: () => Promise<voi
     row("  app's first screen painted (median)", `${ms(median(runs.map((r) => r.cold.appMs)))} ms`),
     row("  runs whose LCP element is index.html's prerendered Today, painted before the app (which then replaced it with no larger element)", `${runs.filter((r) => r.cold.prerendered).length} of ${RUNS}`),
     row("  runs whose LCP element is index.html's static Help now block", `${runs.filter((r) => r.cold.staticBlock).length} of ${RUNS}`),
+    phases(runs.map((r) => r.cold)),
     ...perRun('cold', runs.map((r) => r.cold)),
     row('LCP, warm load from the service worker', `${ms(warm)} ms`, `   runs ${list(runs.map((r) => r.warm.ms))}   budget ≤ ${WARM_BUDGET_MS} ms${warm > WARM_BUDGET_MS ? '   MISSES BUDGET' : ''}`),
     row('  controlled by the service worker in every warm run', runs.every((r) => r.warm.controlled) ? 'yes' : 'no'),
     row("  app's first screen painted (median)", `${ms(median(runs.map((r) => r.warm.appMs)))} ms`),
     row("  runs whose LCP element is index.html's prerendered Today", `${runs.filter((r) => r.warm.prerendered).length} of ${RUNS}`),
     row("  runs whose LCP element is index.html's static Help now block", `${runs.filter((r) => r.warm.staticBlock).length} of ${RUNS}`),
+    phases(runs.map((r) => r.warm)),
     ...perRun('warm', runs.map((r) => r.warm)),
     row('For information only, not a budget: LCP, warm load from the service worker with NO CPU or network throttle', `${ms(median(runs.map((r) => r.warmFast.ms)))} ms`, `   runs ${list(runs.map((r) => r.warmFast.ms))}   app's first screen (median) ${ms(median(runs.map((r) => r.warmFast.appMs)))} ms`),
     row('LCP, cold load served uncompressed (for comparison: the Rungs server gzips its own files)', `${ms(coldPlain)} ms`, `   runs ${list(plainRuns.map((r) => r.ms))}`),
