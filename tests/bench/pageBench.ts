@@ -182,7 +182,7 @@ async function readLcp(page: Page): Promise<Lcp> {
     const files = (performance.getEntriesByType('resource') as (PerformanceResourceTiming & { renderBlockingStatus?: string })[]).filter((r) => r.startTime < nav.domInteractive)
     const phases = {
       html: nav.responseEnd,
-      firstAsk: Math.min(...files.map((r) => r.startTime)),
+      firstAsk: files.length ? Math.min(...files.map((r) => r.startTime)) : 0,
       blockingIn: Math.max(0, ...files.filter((r) => r.renderBlockingStatus === 'blocking').map((r) => r.responseEnd)),
       parsed: nav.domInteractive,
     }
@@ -256,7 +256,7 @@ export async function benchPages(tmp: string, onClose: (close: () => Promise<voi
   const coldPlain = median(plainRuns.map((r) => r.ms))
   const list = (xs: number[]) => xs.map((x) => ms(x)).join(', ')
   const phases = (lcps: Lcp[]) => {
-    const at = (k: keyof Phases) => `${ms(median(lcps.map((r) => r.phases[k])))}`
+    const at = (k: keyof Phases) => ms(median(lcps.map((r) => r.phases[k])))
     return row('  where the time went (medians, ms from the start)', '', `   index.html in ${at('html')}, first file asked for ${at('firstAsk')}, render-blocking files in ${at('blockingIn')}, parsed ${at('parsed')}, FCP ${ms(median(lcps.map((r) => r.fcp)))}`)
   }
   // Each run's candidates in order ("time ms size px² element"), the last one being the LCP.

@@ -119,8 +119,8 @@ describe("index.html's prerendered Today in Chromium", () => {
     await page.locator('.static-fallback').waitFor({ state: 'visible', timeout: 2_000 })
     expect(await page.locator('.first-screen').isVisible()).toBe(false)
     await close()
-    // A profile of its own: in the first one the released app may have installed its service worker, and page.route
-    // does not see what a service worker serves, so the held script would run at once.
+    // A profile of its own, with no service worker from an earlier page: page.route does not see what a service worker
+    // serves, so the held script would run at once.
     const second = await freshContext()
     await second.context.addInitScript(() => localStorage.setItem('rungs.lockSet', 'yes'))
     const locked = await second.context.newPage()
