@@ -2,6 +2,7 @@ import { fileURLToPath, URL } from 'node:url'
 import { VitePWA } from 'vite-plugin-pwa'
 import { defineConfig } from 'vitest/config'
 import { appAliases, appQuasar, appVue } from './client/build/appCompile'
+import { firstScreenCss } from './client/build/firstScreenCss'
 import { firstScreenHtml } from './client/build/firstScreenHtml'
 import { unusedQuasarCss } from './client/build/unusedQuasarCss'
 
@@ -17,6 +18,8 @@ export default defineConfig({
     unusedQuasarCss(fileURLToPath(new URL('./client', import.meta.url))),
     // index.html carries Today rendered from the app's components, so the first screen paints before the app's code runs.
     firstScreenHtml(fileURLToPath(new URL('.', import.meta.url))),
+    // …and links only the rules that screen uses; the whole stylesheet loads with the app's code.
+    firstScreenCss(fileURLToPath(new URL('.', import.meta.url))),
     VitePWA({
       registerType: 'prompt',
       injectRegister: false,

@@ -1,11 +1,5 @@
-// The stylesheets stay in the entry, so index.html links them and its prerendered Today paints styled.
-import '@fontsource/lora/latin-400.css'
-import '@fontsource/lora/latin-600.css'
-import '@quasar/extras/material-icons/material-icons.css'
-import 'quasar/src/css/index.sass'
-import './css/brand.css'
-import './css/app.css'
-
+// The stylesheets are imported by startApp.ts, so only the first screen's own rules (client/build/firstScreenCss.ts) hold
+// up the first paint.
 // index.html already holds Today, rendered at build time (client/build/firstScreenHtml.ts). Running the app's code takes
 // a slow phone a second or more. A page the service worker serves has that code at hand and would run it before painting
 // anything, so there the app starts once the screen is on the glass. Over the network the code arrives after the screen

@@ -1,6 +1,14 @@
 // The app itself, imported by main.ts once index.html's prerendered Today has been painted.
 // First, before any module that builds a zod schema (see boot/zodConfig.ts).
 import './boot/zodConfig'
+// The whole stylesheet, loaded with this chunk: index.html's first paint needs only the rules its prerendered Today uses
+// (client/build/firstScreenCss.ts), and these come after them with every rule in its original order.
+import '@fontsource/lora/latin-400.css'
+import '@fontsource/lora/latin-600.css'
+import '@quasar/extras/material-icons/material-icons.css'
+import 'quasar/src/css/index.sass'
+import './css/brand.css'
+import './css/app.css'
 
 import { createPinia } from 'pinia'
 import { Dark, Dialog, Notify, Quasar } from 'quasar'

@@ -57,13 +57,10 @@ export function firstScreenMarkup({ phone, wide }: { phone: string; wide: string
 }
 
 /**
- * The app's own code is imported by main.ts (client/startApp.ts; after the first paint when the service worker serves
- * the page), and the prerendered screen needs
- * the components' styles as well as the entry's: index.html links every stylesheet of that chunk and the chunks it
- * imports. The code itself is not preloaded: measured, a modulepreload of it held back the stylesheets and fonts on a
- * slow network and the first paint from the service worker (npm run bench -- pages).
+ * The stylesheets of the app's chunk (client/startApp.ts) and of the chunks it imports, in the order they apply: the
+ * whole stylesheet the app runs with, which the first screen's rules are picked from (firstScreenCss.ts).
  */
-export function appChunkCss(bundle: OutputBundle, html: string, base = '/'): string {
+export function appChunkCssFiles(bundle: OutputBundle): string[] {
   const chunks = Object.values(bundle).filter((c): c is OutputChunk => c.type === 'chunk')
   const app = chunks.find((c) => c.facadeModuleId?.replaceAll('\\', '/').endsWith('/client/startApp.ts'))
   if (!app) throw new Error('the build has no chunk for client/startApp.ts')
@@ -75,12 +72,7 @@ export function appChunkCss(bundle: OutputBundle, html: string, base = '/'): str
     for (const dep of c.imports) walk(byName.get(dep)!)
   }
   walk(app)
-  const css = [...new Set([...seen].flatMap((f) => [...(byName.get(f)!.viteMetadata?.importedCss ?? [])]))]
-  // What index.html already links (the entry's own stylesheet) is not asked for twice.
-  return css
-    .filter((f) => !html.includes(`"${base}${f}"`))
-    .map((f) => `<link rel="stylesheet" crossorigin href="${base}${f}">`)
-    .join('\n    ')
+  return [...new Set([...seen].flatMap((f) => [...(byName.get(f)!.viteMetadata?.importedCss ?? [])]))]
 }
 
 /**
@@ -94,10 +86,9 @@ export function firstScreenHtml(repoRoot: string): Plugin {
     apply: 'build',
     transformIndexHtml: {
       order: 'post',
-      async handler(html, ctx) {
+      async handler(html) {
         if (!html.includes(FIRST_SCREEN_MARK)) throw new Error(`index.html has no ${FIRST_SCREEN_MARK} mark for the first screen`)
-        const tags = ctx.bundle ? appChunkCss(ctx.bundle, html) : ''
-        return html.replace('</head>', `  ${tags}\n  </head>`).replace(FIRST_SCREEN_MARK, firstScreenMarkup(await renderFirstScreens(repoRoot)))
+        return html.replace(FIRST_SCREEN_MARK, firstScreenMarkup(await renderFirstScreens(repoRoot)))
       },
     },
   }

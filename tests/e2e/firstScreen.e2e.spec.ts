@@ -1,3 +1,5 @@
+import fs from 'node:fs'
+import path from 'node:path'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { freshContext } from '../helpers/chromium'
@@ -44,6 +46,26 @@ async function boxes(page: Page): Promise<Record<string, number[]>> {
   return out
 }
 
+/**
+ * Every computed property of every element on the page, and of its ::before and ::after where they have content, one
+ * string each ("3 div.q-page|color: rgb(…)").
+ */
+function computedStyles(): string[] {
+  const out: string[] = []
+  document.querySelectorAll('body, body *').forEach((el, i) => {
+    const name = `${i} ${el.tagName.toLowerCase()}.${[...el.classList].join('.')}`
+    for (const pseudo of [null, '::before', '::after']) {
+      const cs = getComputedStyle(el, pseudo)
+      if (pseudo && cs.content === 'none') continue
+      for (let k = 0; k < cs.length; k++) out.push(`${name}${pseudo ?? ''}|${cs[k]}: ${cs.getPropertyValue(cs[k]!)}`)
+    }
+  })
+  return out
+}
+
+// The whole stylesheet the app's chunk loads (client/startApp.ts); index.html links only the first screen's rules.
+const wholeSheets = () => fs.readdirSync(path.resolve('dist/assets')).filter((f) => /^startApp-.*\.css$/.test(f))
+
 describe("index.html's prerendered Today in Chromium", () => {
   for (const [width, height] of [[390, 844], [1280, 800]] as const) {
     it(`paints before the app's code has run, laid out as the app then lays it out (${width} px)`, async () => {
@@ -66,6 +88,39 @@ describe("index.html's prerendered Today in Chromium", () => {
         // Within a pixel: the app's textarea may grow by one as it measures itself.
         before[s]!.forEach((v, i) => expect(Math.abs(v - after[s]![i]!), `${s} [${i}] ${before[s]} → ${after[s]}`).toBeLessThanOrEqual(1))
       }
+      await close()
+    })
+  }
+
+  for (const [label, width, colorScheme] of [['phone, light', 390, 'light'], ['wide, dark', 1280, 'dark']] as const) {
+    it(`is styled by its own rules exactly as by the whole stylesheet, which is not render-blocking (${label})`, async () => {
+      const html = await (await fetch(server.url + '/')).text()
+      const head = html.slice(0, html.indexOf('</head>'))
+      const linked = [...head.matchAll(/<link rel="stylesheet" href="([^"]+)"/g)].map((m) => m[1])
+      expect(linked).toHaveLength(2)
+      expect(linked[0]).toBe('/first-paint.css')
+      expect(linked[1]).toMatch(/^\/assets\/first-screen-[\w-]+\.css$/)
+      expect(wholeSheets()).toHaveLength(1)
+      const { context, close } = await freshContext({ width, height: 844, colorScheme })
+      const page = await context.newPage()
+      await openHeld(page)
+      await page.locator('.first-screen #moment-title').waitFor()
+      // Held still: reading every style takes seconds, and the Help now block's 8 s reveal must not count as a change.
+      await page.evaluate(() => document.getAnimations().forEach((a) => a.pause()))
+      const own = await page.evaluate(computedStyles)
+      await page.evaluate(async (href) => {
+        const link = Object.assign(document.createElement('link'), { rel: 'stylesheet', href })
+        await new Promise((resolve, reject) => {
+          link.onload = resolve
+          link.onerror = reject
+          document.head.append(link)
+        })
+      }, `/assets/${wholeSheets()[0]}`)
+      const whole = await page.evaluate(computedStyles)
+      expect(own.length).toBeGreaterThan(50_000)
+      const before = new Set(own)
+      expect(whole.filter((s) => !before.has(s)).slice(0, 10)).toEqual([])
+      expect(whole.length).toBe(own.length)
       await close()
     })
   }

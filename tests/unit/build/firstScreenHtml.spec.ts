@@ -1,7 +1,8 @@
 import path from 'node:path'
 import type { OutputBundle } from 'rolldown'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { appChunkCss, firstScreenMarkup, renderFirstScreens } from '../../../client/build/firstScreenHtml'
+import { firstScreenRules } from '../../../client/build/firstScreenCss'
+import { appChunkCssFiles, firstScreenMarkup, renderFirstScreens } from '../../../client/build/firstScreenHtml'
 
 const repoRoot = path.resolve(__dirname, '../../..')
 const count = (html: string, needle: string) => html.split(needle).length - 1
@@ -49,28 +50,43 @@ describe('the first screen rendered at build time', () => {
   })
 })
 
-describe("index.html's stylesheets for the app's own chunks", () => {
+describe("the app's whole stylesheet, and the first screen's rules picked from it", () => {
   const chunk = (fileName: string, facadeModuleId: string | null, imports: string[], css: string[]) =>
     ({ type: 'chunk', fileName, facadeModuleId, imports, viteMetadata: { importedCss: new Set(css), importedAssets: new Set() } }) as unknown
   const bundle = {
-    'assets/index-a.js': chunk('assets/index-a.js', '/repo/client/main.ts', [], ['assets/index-a.css']),
+    'assets/index-a.js': chunk('assets/index-a.js', '/repo/client/main.ts', [], []),
     'assets/startApp-b.js': chunk('assets/startApp-b.js', '/repo/client/startApp.ts', ['assets/shared-c.js', 'assets/index-a.js'], ['assets/startApp-b.css']),
     'assets/shared-c.js': chunk('assets/shared-c.js', null, [], ['assets/shared-c.css']),
     'assets/JournalPage-d.js': chunk('assets/JournalPage-d.js', '/repo/client/pages/JournalPage.vue', [], ['assets/JournalPage-d.css']),
   } as unknown as OutputBundle
-  const html = '<script type="module" src="/assets/index-a.js"></script><link rel="stylesheet" href="/assets/index-a.css">'
 
-  it("links the stylesheets of the app chunk and of what it imports, once each, and nothing of lazy pages", () => {
-    const tags = appChunkCss(bundle, html)
-    expect(tags).toContain('<link rel="stylesheet" crossorigin href="/assets/startApp-b.css">')
-    expect(tags).toContain('<link rel="stylesheet" crossorigin href="/assets/shared-c.css">')
-    expect(tags).not.toContain('index-a')
-    expect(tags).not.toContain('JournalPage')
-    expect(tags).not.toContain('.js')
+  it('is the stylesheets of the app chunk and of what it imports, once each, and nothing of lazy pages', () => {
+    expect(appChunkCssFiles(bundle)).toEqual(['assets/startApp-b.css', 'assets/shared-c.css'])
   })
 
   it('fails the build when there is no app chunk', () => {
     const { 'assets/startApp-b.js': _app, ...rest } = bundle as Record<string, unknown>
-    expect(() => appChunkCss(rest as OutputBundle, html)).toThrow(/startApp/)
+    expect(() => appChunkCssFiles(rest as OutputBundle)).toThrow(/startApp/)
+  })
+
+  it('keeps, in their order, the rules the screen can match, the dark ones its first-paint script can switch on, and every font face', async () => {
+    const css = [
+      '@font-face{font-family:Lora;src:url(/a.woff2)}',
+      '.q-btn{color:red}',
+      '.q-dialog{color:blue}',
+      '.body--dark .paper-card{background:#222}',
+      '.q-btn:hover .q-focus-helper{opacity:.1}',
+      '@media (min-width:1024px){.q-drawer{width:232px}.q-table{width:1px}}',
+    ].join('')
+    const html = '<body><div class="paper-card"><button class="q-btn"><span class="q-focus-helper"></span></button></div><aside class="q-drawer"></aside></body>'
+    const out = (await firstScreenRules(css, [html, "document.body.classList.add(dark ? 'body--dark' : 'body--light')"])).replace(/\s*([{};,])\s*/g, '$1').replace(/;}/g, '}')
+    expect(out).toContain('@font-face{font-family:Lora')
+    expect(out).toContain('.q-btn{color:red}')
+    expect(out).toContain('.body--dark .paper-card{background:#222}')
+    expect(out).toContain('.q-btn:hover .q-focus-helper{opacity:.1}')
+    expect(out).toContain('.q-drawer{width:232px}')
+    expect(out).not.toContain('q-dialog')
+    expect(out).not.toContain('q-table')
+    expect(out.indexOf('.q-btn{')).toBeLessThan(out.indexOf('.body--dark'))
   })
 })
